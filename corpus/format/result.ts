@@ -1,0 +1,78 @@
+/**
+ * Outcomes of a solver or oracle, as a tagged union, and the result format crossbound-result/1.
+ *
+ * `errorBound` is a claim: |reported − true| ≤ errorBound in every state, rounding included.
+ */
+import type { GoalMode } from './types.js';
+import type { Scheduler } from './scheduler.js';
+
+export type Method = 'uniformization' | 'euler' | 'kstep' | 'oracle' | (string & {});
+
+export interface Solved {
+  readonly kind: 'solved';
+  readonly method: Method;
+  readonly params: Readonly<Record<string, number | string>>;
+  /** v_s(T) per state index. */
+  readonly values: Float64Array;
+  /** Optional high-precision values per state index (oracles). */
+  readonly valuesDecimal?: readonly string[];
+  readonly errorBound: number;
+  /** The strategy the solver found, if any. */
+  readonly scheduler?: Scheduler;
+  readonly stats: Readonly<Record<string, number>>;
+}
+
+/** The method does not apply, or cannot meet the request honestly. */
+export interface Refused {
+  readonly kind: 'refused';
+  readonly method: Method;
+  readonly reason: string;
+}
+
+export type Outcome = Solved | Refused;
+
+/** The JSON object of format crossbound-result/1 (what `solve --json` prints). */
+export interface ResultJson {
+  format: 'crossbound-result/1';
+  model: string;
+  method: string;
+  params: Record<string, number | string>;
+  time_bound: number;
+  goal_mode: GoalMode;
+  values: Record<string, number>;
+  values_decimal?: Record<string, string>;
+  error_bound: number;
+  scheduler?: { format: 'crossbound-scheduler/1'; model?: string; choices: Record<string, { from: number; action: string }[]> };
+  stats: Record<string, number>;
+  [extra: string]: unknown;
+}
+
+export function toResultJson(
+  solved: Solved,
+  model: { name: string; timeBound: number; goalMode: GoalMode; stateNames: readonly string[] },
+): ResultJson {
+  const values: Record<string, number> = {};
+  model.stateNames.forEach((n, i) => (values[n] = solved.values[i]!));
+  const out: ResultJson = {
+    format: 'crossbound-result/1',
+    model: model.name,
+    method: solved.method,
+    params: { ...solved.params },
+    time_bound: model.timeBound,
+    goal_mode: model.goalMode,
+    values,
+    error_bound: solved.errorBound,
+    stats: { ...solved.stats },
+  };
+  if (solved.valuesDecimal) {
+    const dec: Record<string, string> = {};
+    model.stateNames.forEach((n, i) => (dec[n] = solved.valuesDecimal![i]!));
+    out.values_decimal = dec;
+  }
+  if (solved.scheduler) {
+    const choices: Record<string, { from: number; action: string }[]> = {};
+    for (const [s, segs] of Object.entries(solved.scheduler.choices)) choices[s] = segs.map((g) => ({ from: g.from, action: g.action }));
+    out.scheduler = { format: 'crossbound-scheduler/1', model: model.name, choices };
+  }
+  return out;
+}
