@@ -1,0 +1,169 @@
+/**
+ * Validation of the text an external solver prints: it must be one JSON object of format
+ * crossbound-result/1, with a value for every state of the model and an error bound.
+ *
+ * Faults, checked in this order (the first one found is reported):
+ *   'not-json'      the text is not JSON (empty output included);
+ *   'bad-format'    JSON, but not a result: not an object, `format` is not crossbound-result/1, or a
+ *                   known key has the wrong type (`method` not a string, `values` not an object,
+ *                   `params`, `stats`, `values_decimal`, `scheduler` malformed, `time_bound` or
+ *                   `goal_mode` different from the model's when the caller gives them);
+ *   'missing-state' a state of the model has no entry in `values`;
+ *   'bad-value'     a value is not a finite number (JSON has no NaN: a serialiser writes null for
+ *                   it), or lies outside [0, 1] by more than VALUE_SLACK;
+ *   'no-bound'      `error_bound` is missing, null, negative or not finite (1e999 reads as Infinity).
+ * Extra keys are allowed, and so are values for states the model does not have (ignored).
+ * The values are kept as reported (not clamped): the comparison judges them against the bound.
+ */
+import type { Solved } from '../../corpus/format/result.js';
+import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
+import type { GoalMode } from '../../corpus/format/types.js';
+
+export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
+
+export type ParseOutcome = { ok: true; solved: Solved } | { ok: false; fault: ParseFault; detail: string };
+
+/**
+ * Slack on [0, 1]. A value is a probability, but it is computed in floating point: a convex
+ * combination of values in [0, 1] can round a few ulps past 1 (0.1 + 0.2 + 0.7 gives
+ * 1.0000000000000002), and a solver need not clamp. 1e-12 is about 4500 ulps at 1, more than the
+ * rounding of any honest computation of these sizes leaves after clamping each step, and far below
+ * any precision a user asks for, so a value beyond it is an error and not rounding.
+ */
+export const VALUE_SLACK = 1e-12;
+
+/** The method name an external solver's result gets, so it is never mistaken for a built-in one. */
+export const EXTERNAL_PREFIX = 'external:';
+
+const DECIMAL_RE = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+function isPlainObject(x: unknown): x is Record<string, unknown> {
+  return typeof x === 'object' && x !== null && !Array.isArray(x);
+}
+
+function fail(fault: ParseFault, detail: string): ParseOutcome {
+  return { ok: false, fault, detail };
+}
+
+function parseScheduler(x: unknown): Scheduler | string {
+  if (!isPlainObject(x)) return '`scheduler` is not an object';
+  if (x.format !== undefined && x.format !== 'crossbound-scheduler/1') return '`scheduler.format` is not crossbound-scheduler/1';
+  if (!isPlainObject(x.choices)) return '`scheduler.choices` is not an object';
+  const choices: Record<string, Segment[]> = {};
+  for (const [s, segs] of Object.entries(x.choices)) {
+    if (!Array.isArray(segs)) return `\`scheduler.choices.${s}\` is not a list`;
+    const out: Segment[] = [];
+    for (const g of segs) {
+      if (!isPlainObject(g) || typeof g.from !== 'number' || !Number.isFinite(g.from) || typeof g.action !== 'string') {
+        return `\`scheduler.choices.${s}\` has a segment that is not { from: number, action: string }`;
+      }
+      out.push({ from: g.from, action: g.action });
+    }
+    choices[s] = out;
+  }
+  return typeof x.model === 'string' ? { model: x.model, choices } : { choices };
+}
+
+export interface ParseExpect {
+  /** When given, a result for another time bound is 'bad-format'. */
+  readonly timeBound?: number;
+  /** When given, a result for the other goal mode is 'bad-format'. */
+  readonly goalMode?: GoalMode;
+}
+
+export function parseResult(text: string, stateNames: readonly string[], expect: ParseExpect = {}): ParseOutcome {
+  let doc: unknown;
+  try {
+    doc = JSON.parse(text);
+  } catch (e) {
+    const head = text.trim().slice(0, 60).replace(/\s+/g, ' ');
+    return fail('not-json', text.trim() === '' ? 'the solver printed nothing on stdout' : `stdout is not JSON (${(e as Error).message}); it begins "${head}"`);
+  }
+  if (!isPlainObject(doc)) return fail('bad-format', `the result is ${Array.isArray(doc) ? 'a list' : `a ${doc === null ? 'null' : typeof doc}`}, not an object`);
+  if (doc.format !== 'crossbound-result/1') return fail('bad-format', `\`format\` is ${JSON.stringify(doc.format) ?? 'missing'}, not "crossbound-result/1"`);
+  if (typeof doc.method !== 'string' || doc.method === '') return fail('bad-format', '`method` is missing or not a non-empty string');
+  if (doc.model !== undefined && typeof doc.model !== 'string') return fail('bad-format', '`model` is not a string');
+  if (!isPlainObject(doc.values)) return fail('bad-format', '`values` is missing or not an object');
+
+  const params: Record<string, number | string> = {};
+  if (doc.params !== undefined) {
+    if (!isPlainObject(doc.params)) return fail('bad-format', '`params` is not an object');
+    for (const [k, v] of Object.entries(doc.params)) {
+      if (typeof v !== 'number' && typeof v !== 'string') return fail('bad-format', `\`params.${k}\` is neither a number nor a string`);
+      params[k] = v;
+    }
+  }
+  const stats: Record<string, number> = {};
+  if (doc.stats !== undefined) {
+    if (!isPlainObject(doc.stats)) return fail('bad-format', '`stats` is not an object');
+    for (const [k, v] of Object.entries(doc.stats)) {
+      if (typeof v !== 'number') return fail('bad-format', `\`stats.${k}\` is not a number`);
+      stats[k] = v;
+    }
+  }
+  if (doc.time_bound !== undefined) {
+    if (typeof doc.time_bound !== 'number') return fail('bad-format', '`time_bound` is not a number');
+    if (expect.timeBound !== undefined && doc.time_bound !== expect.timeBound) {
+      return fail('bad-format', `the result is for time bound ${doc.time_bound}, the model's is ${expect.timeBound}`);
+    }
+  }
+  if (doc.goal_mode !== undefined) {
+    if (doc.goal_mode !== 'within' && doc.goal_mode !== 'at') return fail('bad-format', '`goal_mode` is neither "within" nor "at"');
+    if (expect.goalMode !== undefined && doc.goal_mode !== expect.goalMode) {
+      return fail('bad-format', `the result is for goal mode ${doc.goal_mode}, the model's is ${expect.goalMode}`);
+    }
+  }
+  let decimals: Record<string, unknown> | undefined;
+  if (doc.values_decimal !== undefined) {
+    if (!isPlainObject(doc.values_decimal)) return fail('bad-format', '`values_decimal` is not an object');
+    for (const [k, v] of Object.entries(doc.values_decimal)) {
+      if (typeof v !== 'string' || !DECIMAL_RE.test(v.trim())) return fail('bad-format', `\`values_decimal.${k}\` is not a decimal string`);
+    }
+    decimals = doc.values_decimal;
+  }
+  let scheduler: Scheduler | undefined;
+  if (doc.scheduler !== undefined) {
+    const s = parseScheduler(doc.scheduler);
+    if (typeof s === 'string') return fail('bad-format', s);
+    scheduler = s;
+  }
+
+  // --- values, in state order ---
+  const values = new Float64Array(stateNames.length);
+  const missing = stateNames.filter((n) => !Object.hasOwn(doc.values as object, n));
+  if (missing.length > 0) {
+    const shown = missing.slice(0, 5).join(', ') + (missing.length > 5 ? ` and ${missing.length - 5} more` : '');
+    return fail('missing-state', `no value for ${missing.length} of ${stateNames.length} states: ${shown}`);
+  }
+  for (let i = 0; i < stateNames.length; i++) {
+    const name = stateNames[i]!;
+    const v = doc.values[name];
+    if (typeof v !== 'number' || !Number.isFinite(v)) {
+      return fail('bad-value', `the value of ${name} is ${v === null ? 'null (NaN or a missing number, once serialised)' : JSON.stringify(v) ?? String(v)}, not a finite number`);
+    }
+    if (v < -VALUE_SLACK || v > 1 + VALUE_SLACK) return fail('bad-value', `the value of ${name} is ${v}, outside [0, 1] (slack ${VALUE_SLACK})`);
+    values[i] = v;
+  }
+
+  // --- the bound ---
+  const eb = doc.error_bound;
+  if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked');
+  if (typeof eb !== 'number') return fail('no-bound', `\`error_bound\` is ${JSON.stringify(eb)}, not a number`);
+  if (!Number.isFinite(eb) || eb < 0) return fail('no-bound', `\`error_bound\` is ${eb}: it must be a finite number ≥ 0`);
+
+  let valuesDecimal: string[] | undefined;
+  // Solved keeps decimals per state index, so only a complete set is carried over.
+  if (decimals && stateNames.every((n) => typeof decimals![n] === 'string')) valuesDecimal = stateNames.map((n) => (decimals![n] as string).trim());
+
+  const solved: Solved = {
+    kind: 'solved',
+    method: EXTERNAL_PREFIX + doc.method,
+    params,
+    values,
+    ...(valuesDecimal ? { valuesDecimal } : {}),
+    errorBound: eb,
+    ...(scheduler ? { scheduler } : {}),
+    stats,
+  };
+  return { ok: true, solved };
+}
