@@ -1,0 +1,83 @@
+/**
+ * The project's own methods as the harness runs them, by label: 'uniformization', 'euler',
+ * 'kstep:K', 'oracle'. Each returns a MethodResult (plain data) and never throws for a numerical
+ * reason: an exception inside a solver is reported as a fault, so one bad model cannot stop a run.
+ *
+ * A method that refuses at the requested precision because the work would be too large (Euler on a
+ * stiff model, say) is retried at 10×, 100×, … the precision, up to 1e-2; the precision actually used
+ * is recorded and the comparisons use the bound it reported, so a looser answer is still a sound
+ * cross-check.
+ */
+import type { CompiledModel } from '../../corpus/format/compile.js';
+import type { Outcome } from '../../corpus/format/result.js';
+import type { Scheduler } from '../../corpus/format/scheduler.js';
+import type { Model } from '../../corpus/format/types.js';
+import { solveOracle } from '../../oracles/index.js';
+import { solveEuler } from '../../solvers/euler/index.js';
+import { solveKstep } from '../../solvers/kstep/index.js';
+import { solveUniformization } from '../../solvers/uniformization/index.js';
+import type { MethodResult } from './types.js';
+
+export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'oracle'] as const;
+
+export interface MethodContext {
+  readonly model: Model;
+  readonly compiled: CompiledModel;
+  readonly precision: number;
+  readonly oracleDigits: number;
+  readonly scheduler?: Scheduler;
+}
+
+/** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
+export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle'; k?: number } {
+  const m = /^kstep(?::(\d+))?$/.exec(label);
+  if (m) {
+    const k = m[1] === undefined ? 3 : Number(m[1]);
+    if (!(k >= 1 && k <= 8)) throw new Error(`kstep order must be between 1 and 8 (got ${m[1]})`);
+    return { method: 'kstep', k };
+  }
+  if (label === 'uniformization' || label === 'euler' || label === 'oracle') return { method: label };
+  throw new Error(`unknown method '${label}' (known: uniformization, euler, kstep:K, oracle)`);
+}
+
+export function solveWith(label: string, ctx: MethodContext, precision: number): Outcome {
+  const { method, k } = parseMethodLabel(label);
+  switch (method) {
+    case 'uniformization':
+      return solveUniformization(ctx.compiled, ctx.scheduler ? { precision, scheduler: ctx.scheduler } : { precision });
+    case 'euler':
+      return solveEuler(ctx.compiled, { precision });
+    case 'kstep':
+      return solveKstep(ctx.compiled, { precision, k: k! });
+    case 'oracle':
+      return solveOracle(ctx.model, ctx.scheduler ? { digits: ctx.oracleDigits, scheduler: ctx.scheduler } : { digits: ctx.oracleDigits });
+  }
+}
+
+export function runInternal(label: string, ctx: MethodContext): MethodResult {
+  const t0 = performance.now();
+  let precision = ctx.precision;
+  try {
+    for (;;) {
+      const out = solveWith(label, ctx, precision);
+      const seconds = (performance.now() - t0) / 1000;
+      if (out.kind === 'solved') {
+        return {
+          label,
+          status: 'solved',
+          values: [...out.values],
+          ...(out.valuesDecimal ? { valuesDecimal: [...out.valuesDecimal] } : {}),
+          errorBound: out.errorBound,
+          precision: label === 'oracle' ? 10 ** -ctx.oracleDigits : precision,
+          seconds,
+          stats: { ...out.stats },
+        };
+      }
+      const retry = label !== 'oracle' && label !== 'uniformization' && precision * 10 <= 1e-2 && /work|steps|intervals|cap/i.test(out.reason);
+      if (!retry) return { label, status: 'refused', reason: out.reason, seconds };
+      precision *= 10;
+    }
+  } catch (e) {
+    return { label, status: 'fault', fault: 'exception', reason: (e as Error).message, seconds: (performance.now() - t0) / 1000 };
+  }
+}

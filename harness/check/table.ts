@@ -1,0 +1,49 @@
+/** The terminal table of `check`, and the list of failures with the command that reproduces each. */
+import type { ModelReport } from './types.js';
+import { modelPassed } from './types.js';
+
+export function formatTable(header: readonly string[], rows: readonly (readonly string[])[]): string {
+  const width = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
+  const line = (r: readonly string[]): string => r.map((c, i) => (i === 0 ? c.padEnd(width[i]!) : c.padStart(width[i]!))).join('  ').trimEnd();
+  return [line(header), width.map((w) => '-'.repeat(w)).join('  '), ...rows.map(line)].join('\n');
+}
+
+/** The most trustworthy answer of a report: the solved method with the smallest bound. */
+export function bestAnswer(r: ModelReport) {
+  let best;
+  for (const m of r.methods) if (m.status === 'solved' && (!best || m.errorBound! < best.errorBound!)) best = m;
+  return best;
+}
+
+export function formatCheckReport(reports: readonly ModelReport[]): string {
+  const rows = reports.map((r) => {
+    const solved = r.methods.filter((m) => m.status === 'solved').length;
+    const best = bestAnswer(r);
+    const s = r.initial >= 0 ? r.initial : 0;
+    const value = best && r.states > 0 ? `${r.stateNames[s]} = ${best.values![s]!.toPrecision(10)}` : '-';
+    const ratios = r.checks.filter((c) => c.name.startsWith('agree')).map((c) => c.ratio ?? 0);
+    const worst = ratios.length ? Math.max(...ratios) : NaN;
+    return [
+      r.model,
+      r.kind,
+      String(r.states),
+      r.lambdaT.toPrecision(3),
+      `${solved}/${r.methods.length}`,
+      value,
+      Number.isNaN(worst) ? '-' : worst.toExponential(1),
+      r.error ? 'ERROR' : modelPassed(r) ? 'agree' : 'FAIL',
+    ];
+  });
+  const out = [formatTable(['model', 'kind', 'states', 'λT', 'solved', 'initial value (tightest bound)', 'worst |Δ|/allowed', 'verdict'], rows)];
+  const failures = reports.flatMap((r) => r.checks.filter((c) => !c.passed).map((c) => ({ r, c })));
+  if (failures.length > 0) {
+    out.push('', `${failures.length} failed check(s):`);
+    failures.forEach(({ r, c }, i) => {
+      out.push(`  ${i + 1}. ${r.model} (${r.file}) — ${c.name}: ${c.detail}`);
+      if (c.reproduce) out.push(`     reproduce: ${c.reproduce}`);
+    });
+  }
+  const passed = reports.filter(modelPassed).length;
+  out.push('', `${passed} of ${reports.length} model(s) pass every check.`);
+  return out.join('\n');
+}

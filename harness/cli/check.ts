@@ -1,0 +1,77 @@
+/** `check`: the cross-checking run over a corpus. */
+import type { Command } from 'commander';
+import cliProgress from 'cli-progress';
+import { runCheck, parseShard } from '../check/index.js';
+import { parseMethodLabel } from '../check/methods.js';
+import { formatCheckReport } from '../check/table.js';
+import { checkJson } from '../reports/json.js';
+import { junitXml } from '../reports/junit.js';
+import type { SetExit } from './commands.js';
+import { UsageError } from './errors.js';
+import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
+
+const collect = (v: string, prev: string[]): string[] => [...prev, v];
+
+interface CheckCliOptions {
+  solver: string[];
+  precision: string;
+  methods?: string;
+  json?: string;
+  junit?: string;
+  shard?: string;
+  timeout: string;
+  oracleDigits: string;
+}
+
+export function registerCheck(program: Command, setExit: SetExit): void {
+  program
+    .command('check')
+    .description('solve every model with every applicable method and solver, and flag every disagreement beyond the stated bounds')
+    .argument('[paths...]', 'model files or folders (searched recursively)', ['corpus'])
+    .option('--solver <template>', "an external solver, e.g. 'mysolver {model} --eps {precision}' (repeatable; placeholders {model} {precision} {time})", collect, [])
+    .option('--precision <p>', 'requested absolute error for every method', '1e-6')
+    .option('--methods <list>', 'own methods to run, comma-separated (uniformization, euler, kstep:1..kstep:8, oracle), or none', 'uniformization,euler,kstep:1,kstep:2,kstep:3,kstep:4,oracle')
+    .option('--oracle-digits <n>', 'digits asked of the high-precision oracle', '20')
+    .option('--timeout <seconds>', 'time limit of one external solver run', '60')
+    .option('--json <file>', 'write every result and verdict as JSON')
+    .option('--junit <file>', 'write JUnit XML (one test case per model and check)')
+    .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
+    .action(async (paths: string[], o: CheckCliOptions) => {
+      const precision = parsePrecision(o.precision);
+      const methods = o.methods === 'none' ? [] : (o.methods ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+      for (const m of methods) {
+        try {
+          parseMethodLabel(m);
+        } catch (e) {
+          throw new UsageError(`--methods: ${(e as Error).message}`);
+        }
+      }
+      const shard = o.shard ? parseShard(o.shard) : undefined;
+      const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
+      const oracleDigits = parsePositiveInt(o.oracleDigits, '--oracle-digits', 200);
+      const bar = process.stderr.isTTY
+        ? new cliProgress.SingleBar({ format: 'check [{bar}] {value}/{total} {model}', hideCursor: true, clearOnComplete: true }, cliProgress.Presets.shades_classic)
+        : undefined;
+      let started = false;
+      const { reports, exitCode } = await runCheck(paths, {
+        precision,
+        methods,
+        solvers: o.solver,
+        timeoutMs,
+        oracleDigits,
+        ...(shard ? { shard } : {}),
+        onProgress: (done, total, model) => {
+          if (bar) {
+            if (!started) bar.start(total, 0, { model });
+            started = true;
+            bar.update(done, { model });
+            if (done === total) bar.stop();
+          } else if (model) process.stderr.write(`check ${done + 1}/${total}: ${model}\n`);
+        },
+      });
+      process.stdout.write(`${formatCheckReport(reports)}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, o.shard), null, 1)}\n`);
+      if (o.junit) writeFileAtomic(o.junit, junitXml(reports));
+      setExit(exitCode);
+    });
+}

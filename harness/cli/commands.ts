@@ -1,0 +1,17 @@
+/** The subcommands, each a thin layer over a library function. */
+import { Command, Option } from 'commander';
+import { registerBench } from './bench.js';
+import { registerCheck } from './check.js';
+import { registerExport, registerSolve, registerValidate } from './solve.js';
+
+export type SetExit = (code: number) => void;
+
+export function registerCommands(program: Command, setExit: SetExit): void {
+  registerSolve(program, setExit);
+  registerCheck(program, setExit);
+  registerBench(program, setExit);
+  registerValidate(program, setExit);
+  registerExport(program, setExit);
+}
+
+export { Option };
