@@ -1,0 +1,164 @@
+/**
+ * `kstep`: the k-step interval scheme for time-bounded reachability in CTMCs, CTMDPs and CTMGs.
+ *
+ * Method: time left runs from 0 to T in intervals of length ε (the last one may be shorter). On each
+ * interval the Bellman right-hand side B is replaced k times by its value on the previous Picard
+ * level: f⁰ ≡ x, f^j = x + ∫ B(f^{j−1}), where B takes the pointwise max/min over actions of
+ * polynomials, so f^j is a continuous piecewise polynomial of degree j (./interval.ts,
+ * ../piecewise/). x for the next interval is f^k(ε). The idea of k-step approximation per interval,
+ * with O(ε^{k+1}) error per interval and O((T/π)^{1/k}) intervals for precision π, is from memory:
+ * Fearnley, Rabe, Schewe & Zhang, "Efficient approximation of optimal control for continuous-time
+ * Markov games" (FSTTCS 2011; Information and Computation 2016). The error bound used here is derived
+ * in ./bound.ts: per interval (2λε)^{k+1}/(2·(k+1)!), summed over intervals, plus a rounding allowance.
+ *
+ * Guarantee: |values_s − v_s(T)| ≤ errorBound ≤ precision in every state s.
+ * Refuses: k not an integer in 1 … 8, precision not in (0, ∞), a choice state without an owner, more
+ * than `maxIntervals` intervals (default 10^7) or more than ~4·10^10 transition-coefficient updates,
+ * a rounding allowance above a tenth of the precision, or a piece count that halving the interval
+ * ten times does not bring under the cap.
+ * Scheduler: per interval and owned state, the action chosen at level k for the longest part of the
+ * interval, in elapsed time (interval [t0, t0+ε] of time left is [T−t0−ε, T−t0] elapsed).
+ */
+import type { CompiledModel } from '../../corpus/format/compile.js';
+import type { Outcome } from '../../corpus/format/result.js';
+import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
+import { chooseEpsilon, localBound, roundingBound } from './bound.js';
+import { makeWork, runInterval, type KstepWork } from './interval.js';
+
+export interface KstepOptions {
+  readonly precision: number;
+  readonly k: number;
+  /** Largest number of pieces one state may carry in an interval before it is halved (default 32). */
+  readonly pieceCap?: number;
+  readonly maxIntervals?: number;
+}
+
+const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'kstep', reason });
+
+export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
+  const started = performance.now();
+  const { precision, k } = opts;
+  const T = m.timeBound;
+  const S = m.nStates;
+  // --- special cases -------------------------------------------------------------------------
+  if (!Number.isInteger(k) || k < 1 || k > 8) return refuse(`k must be an integer from 1 to 8, got ${k}`);
+  if (!(precision > 0) || !Number.isFinite(precision)) return refuse(`precision must be a finite number > 0, got ${precision}`);
+  if (!(T > 0) || !Number.isFinite(T)) return refuse(`time bound must be finite and > 0, got ${T}`);
+  for (let s = 0; s < S; s++)
+    if (m.actionStart[s + 1]! - m.actionStart[s]! >= 2 && m.owner[s] === 0) return refuse(`state '${m.stateNames[s]}' has a choice and no owner`);
+  const within = m.goalMode === 'within';
+  const x0 = new Float64Array(S);
+  const active = new Uint8Array(S);
+  let lambda = 0;
+  let rowLen = 1;
+  for (let s = 0; s < S; s++) {
+    x0[s] = m.goal[s] ? 1 : 0;
+    if (within && m.goal[s]) continue;
+    for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) {
+      if (m.exitRate[a]! > 0) active[s] = 1;
+      lambda = Math.max(lambda, m.exitRate[a]!);
+      rowLen = Math.max(rowLen, m.rowStart[a + 1]! - m.rowStart[a]! + 1);
+    }
+  }
+  const params = { k, precision };
+  const scheduler = (): Scheduler => ({ choices: constantChoices(m) });
+  if (lambda === 0) {
+    const stats = { intervals: 0, maxPieces: 1, seconds: (performance.now() - started) / 1000, lambda: 0 };
+    return { kind: 'solved', method: 'kstep', params, values: x0, errorBound: 0, scheduler: scheduler(), stats };
+  }
+  // --- interval length from the bound ----------------------------------------------------------
+  const eps = chooseEpsilon(lambda, T, k, 0.9 * precision);
+  const N = Math.ceil(T / eps);
+  const maxIntervals = opts.maxIntervals ?? 1e7;
+  const work = N * (m.nTransitions + m.nStates) * ((k * (k + 1)) / 2);
+  if (!(N <= maxIntervals) || work > 4e10)
+    return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`);
+  const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, Math.exp(2 * lambda * eps));
+  if (roundEstimate > 0.1 * precision)
+    return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`);
+
+  // --- the intervals -------------------------------------------------------------------------
+  const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32);
+  let x = Float64Array.from(x0);
+  let next = new Float64Array(S);
+  let trunc = 0;
+  let round = 0;
+  let intervals = 0;
+  let halvings = 0;
+  const rec = new ChoiceRecorder(m, T);
+  const span = (t0: number, t1: number, depth: number): string | undefined => {
+    const len = t1 - t0;
+    w.coefNorm = 1;
+    if (runInterval(w, x, len, next)) {
+      trunc += localBound(lambda, len, k);
+      round += roundingBound(lambda, len, k, rowLen, w.coefNorm);
+      intervals++;
+      rec.record(w, t0);
+      const tmp = x;
+      x = next;
+      next = tmp;
+      return undefined;
+    }
+    if (depth >= 10) return `more than ${w.pieceCap} pieces in one state even on an interval of length ${len}`;
+    halvings++;
+    const mid = t0 + 0.5 * len;
+    return span(t0, mid, depth + 1) ?? span(mid, t1, depth + 1);
+  };
+  for (let i = 0; i < N; i++) {
+    const t0 = i * eps;
+    const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
+    if (!(t1 > t0)) continue;
+    const why = span(t0, t1, 0);
+    if (why) return refuse(why);
+  }
+  // Summing the bounds in floating point: a relative margin of 1e-9 covers its rounding.
+  const errorBound = (trunc + round) * (1 + 1e-9);
+  if (errorBound > precision) return refuse(`the bound reached ${errorBound}, above the precision ${precision}`);
+  const stats = {
+    intervals, maxPieces: w.maxPieces, seconds: (performance.now() - started) / 1000, lambda, epsilon: eps,
+    truncationBound: trunc, roundingBound: round, slowStateLevels: w.slowStates, halvings,
+  };
+  return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
+}
+
+/** Every owned state takes its first action throughout. */
+function constantChoices(m: CompiledModel): Record<string, Segment[]> {
+  const out: Record<string, Segment[]> = {};
+  for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) out[m.stateNames[s]!] = [{ from: 0, action: m.actionNames[m.actionStart[s]!]! }];
+  return out;
+}
+
+/** Collects level-k decisions interval by interval (time left increasing = elapsed decreasing). */
+class ChoiceRecorder {
+  private readonly cur: Int32Array;
+  private readonly segs = new Map<number, Segment[]>();
+  private readonly owned: number[] = [];
+  constructor(private readonly m: CompiledModel, private readonly T: number) {
+    this.cur = new Int32Array(m.nStates).fill(-1);
+    for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) this.owned.push(s);
+  }
+  record(w: KstepWork, t0: number): void {
+    for (const s of this.owned) {
+      const d = w.dec[s]!;
+      if (d < 0) continue;
+      const c = this.cur[s]!;
+      if (c >= 0 && c !== d) {
+        let list = this.segs.get(s);
+        if (!list) this.segs.set(s, (list = []));
+        list.push({ from: this.T - t0, action: this.m.actionNames[c]! });
+      }
+      this.cur[s] = d;
+    }
+  }
+  finish(): Record<string, Segment[]> {
+    const out = constantChoices(this.m);
+    for (const s of this.owned) {
+      const c = this.cur[s]!;
+      if (c < 0) continue;
+      const list = this.segs.get(s) ?? [];
+      list.push({ from: 0, action: this.m.actionNames[c]! });
+      out[this.m.stateNames[s]!] = list.reverse();
+    }
+    return out;
+  }
+}
