@@ -8,7 +8,11 @@ import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, withinTolerance } from '../compare/index.js';
 import { runExternalMethod } from './external.js';
 import { INTERNAL_METHODS, runInternal } from './methods.js';
+import { audit, dominance, metamorphic, monotoneInT, type Solve } from './properties.js';
 import type { CheckResult, MethodResult, ModelReport } from './types.js';
+
+/** The own method that also runs the metamorphic relations (fast and order 3). */
+export const METAMORPHIC_METHOD = 'kstep:3';
 
 export interface CheckOptions {
   readonly precision: number;
@@ -47,6 +51,22 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     methods.push(await runExternalMethod(template, i, model, compiled, opts));
   }
   const checks = judge(file, model, methods, opts);
+  const solve: Solve = async (label, m) => {
+    if (!label.startsWith('solver:')) return runInternal(label, { ...ctx, model: m, compiled: compile(m) });
+    const i = Number(label.split('#')[1]) - 1;
+    return runExternalMethod(opts.solvers![i]!, i, m, compile(m), opts);
+  };
+  for (const m of methods) {
+    if (m.status !== 'solved' || m.label === 'oracle') continue;
+    const labels = [m.label];
+    const mono = await monotoneInT(model, m, solve);
+    if (mono) checks.push(withRepro(mono, file, labels, opts));
+    const dom = dominance(model, m);
+    if (dom) checks.push(withRepro(dom, file, labels, opts));
+    if (m.label === METAMORPHIC_METHOD || m.label.startsWith('solver:')) {
+      for (const c of await metamorphic(model, m, solve)) checks.push(withRepro(c, file, labels, opts));
+    }
+  }
   return {
     file,
     model: model.name,
@@ -60,8 +80,13 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     initial: compiled.initial,
     methods,
     checks,
+    audit: audit(methods),
     warnings,
   };
+}
+
+function withRepro(c: CheckResult, file: string, labels: readonly string[], opts: CheckOptions): CheckResult {
+  return c.passed ? c : { ...c, reproduce: reproduce(file, labels, opts) };
 }
 
 function judge(file: string, model: Model, methods: MethodResult[], opts: CheckOptions): CheckResult[] {

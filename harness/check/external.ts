@@ -6,6 +6,7 @@ import type { CompiledModel } from '../../corpus/format/compile.js';
 import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
+import { plainChoices } from './methods.js';
 import type { MethodResult } from './types.js';
 
 export function solverLabel(template: string, index: number): string {
@@ -40,5 +41,6 @@ export async function runExternalMethod(
     precision: opts.precision,
     seconds: out.seconds,
     stats: { ...s.stats },
+    ...(s.scheduler ? { scheduler: { choices: plainChoices(s.scheduler.choices) } } : {}),
   };
 }

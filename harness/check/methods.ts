@@ -54,6 +54,10 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
   }
 }
 
+export function plainChoices(c: Scheduler['choices']): Record<string, { from: number; action: string }[]> {
+  return Object.fromEntries(Object.entries(c).map(([s, segs]) => [s, segs.map((g) => ({ from: g.from, action: g.action }))]));
+}
+
 export function runInternal(label: string, ctx: MethodContext): MethodResult {
   const t0 = performance.now();
   let precision = ctx.precision;
@@ -71,6 +75,7 @@ export function runInternal(label: string, ctx: MethodContext): MethodResult {
           precision: label === 'oracle' ? 10 ** -ctx.oracleDigits : precision,
           seconds,
           stats: { ...out.stats },
+          ...(out.scheduler ? { scheduler: { choices: plainChoices(out.scheduler.choices) } } : {}),
         };
       }
       const retry = label !== 'oracle' && label !== 'uniformization' && precision * 10 <= 1e-2 && /work|steps|intervals|cap/i.test(out.reason);

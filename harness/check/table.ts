@@ -35,6 +35,8 @@ export function formatCheckReport(reports: readonly ModelReport[]): string {
     ];
   });
   const out = [formatTable(['model', 'kind', 'states', 'λT', 'solved', 'initial value (tightest bound)', 'worst |Δ|/allowed', 'verdict'], rows)];
+  const auditText = formatAudit(reports);
+  if (auditText) out.push('', auditText);
   const failures = reports.flatMap((r) => r.checks.filter((c) => !c.passed).map((c) => ({ r, c })));
   if (failures.length > 0) {
     out.push('', `${failures.length} failed check(s):`);
@@ -46,4 +48,25 @@ export function formatCheckReport(reports: readonly ModelReport[]): string {
   const passed = reports.filter(modelPassed).length;
   out.push('', `${passed} of ${reports.length} model(s) pass every check.`);
   return out.join('\n');
+}
+
+/** Per method, over the models the oracle solved: the largest and the median actual-error/bound ratio. */
+export function auditSummary(reports: readonly ModelReport[]): { method: string; models: number; max: number; median: number }[] {
+  const by = new Map<string, number[]>();
+  for (const r of reports) for (const a of r.audit ?? []) by.set(a.method, [...(by.get(a.method) ?? []), a.ratio]);
+  return [...by].map(([method, rs]) => {
+    const sorted = [...rs].sort((x, y) => x - y);
+    const mid = sorted.length >> 1;
+    const median = sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
+    return { method, models: rs.length, max: sorted[sorted.length - 1]!, median };
+  });
+}
+
+function formatAudit(reports: readonly ModelReport[]): string {
+  const rows = auditSummary(reports);
+  if (rows.length === 0) return '';
+  return [
+    'Bound audit against the oracle (actual error / stated bound; over 1 is a broken bound, far below 1 a loose one):',
+    formatTable(['method', 'models', 'largest', 'median'], rows.map((r) => [r.method, String(r.models), r.max.toExponential(2), r.median.toExponential(2)])),
+  ].join('\n');
 }

@@ -16,6 +16,8 @@ export interface MethodResult {
   readonly fault?: string;
   readonly seconds: number;
   readonly stats?: Record<string, number>;
+  /** The strategy the method returned, if any (elapsed-time segments per owned state). */
+  readonly scheduler?: { choices: Record<string, { from: number; action: string }[]> };
 }
 
 export interface CheckResult {
@@ -42,6 +44,8 @@ export interface ModelReport {
   readonly initial: number;
   readonly methods: MethodResult[];
   readonly checks: CheckResult[];
+  /** Per method: actual error against the oracle (beyond its bound) / the method's bound. */
+  readonly audit: { method: string; ratio: number }[];
   readonly warnings: string[];
   /** Set when the file could not be loaded: the model is then a failure with this message. */
   readonly error?: string;
