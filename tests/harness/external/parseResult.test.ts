@@ -1,0 +1,85 @@
+import { describe, expect, it } from 'vitest';
+import { parseResult, VALUE_SLACK } from '../../../harness/external/parseResult.js';
+
+const names = ['both_ok', 'a_worn', 'dry'];
+const good = () => ({
+  format: 'crossbound-result/1',
+  model: 'pumps',
+  method: 'kstep',
+  params: { k: 3, precision: 1e-6 },
+  time_bound: 12,
+  goal_mode: 'within',
+  values: { both_ok: 0.41234, a_worn: 0.7, dry: 1 },
+  error_bound: 1e-6,
+  stats: { intervals: 412 },
+  extra_key: { anything: [1, 2] },
+});
+const parse = (doc: unknown, expect = {}) => parseResult(typeof doc === 'string' ? doc : JSON.stringify(doc), names, expect);
+const faultOf = (doc: unknown, expect = {}) => {
+  const r = parse(doc, expect);
+  return r.ok ? 'ok' : r.fault;
+};
+
+describe('parseResult', () => {
+  it('accepts a valid result, values in state order, method prefixed, extra keys allowed', () => {
+    const r = parse({ ...good(), values_decimal: { both_ok: '0.41234', a_worn: '0.7', dry: '1' } });
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect([...r.solved.values]).toEqual([0.41234, 0.7, 1]);
+    expect(r.solved.method).toBe('external:kstep');
+    expect(r.solved.errorBound).toBe(1e-6);
+    expect(r.solved.params).toEqual({ k: 3, precision: 1e-6 });
+    expect(r.solved.valuesDecimal).toEqual(['0.41234', '0.7', '1']);
+  });
+  it('carries a scheduler and drops a partial values_decimal', () => {
+    const r = parse({ ...good(), values_decimal: { both_ok: '0.41234' }, scheduler: { format: 'crossbound-scheduler/1', choices: { both_ok: [{ from: 0, action: 'run_b' }] } } });
+    expect(r.ok && r.solved.valuesDecimal).toBe(undefined);
+    expect(r.ok && r.solved.scheduler?.choices.both_ok).toEqual([{ from: 0, action: 'run_b' }]);
+  });
+  it("'not-json': text, empty output, a NaN literal", () => {
+    expect(faultOf('iteration 1 done')).toBe('not-json');
+    expect(faultOf('')).toBe('not-json');
+    expect(faultOf('{"values": {"dry": NaN}}')).toBe('not-json');
+  });
+  it("'bad-format': not an object, wrong format, wrong types, another time bound or goal mode", () => {
+    expect(faultOf([1, 2])).toBe('bad-format');
+    expect(faultOf(null)).toBe('bad-format');
+    expect(faultOf({ ...good(), format: 'crossbound-result/2' })).toBe('bad-format');
+    expect(faultOf({ ...good(), method: 3 })).toBe('bad-format');
+    expect(faultOf({ ...good(), values: [0.4, 0.7, 1] })).toBe('bad-format');
+    expect(faultOf({ ...good(), params: { k: [3] } })).toBe('bad-format');
+    expect(faultOf({ ...good(), stats: { seconds: '0.1' } })).toBe('bad-format');
+    expect(faultOf({ ...good(), values_decimal: { dry: 'one' } })).toBe('bad-format');
+    expect(faultOf({ ...good(), scheduler: { choices: { both_ok: [{ from: 'x', action: 'a' }] } } })).toBe('bad-format');
+    expect(faultOf(good(), { timeBound: 10 })).toBe('bad-format');
+    expect(faultOf(good(), { goalMode: 'at' })).toBe('bad-format');
+    expect(faultOf(good(), { timeBound: 12, goalMode: 'within' })).toBe('ok');
+  });
+  it("'missing-state' names the states", () => {
+    const doc = good();
+    delete (doc.values as Record<string, number>).a_worn;
+    const r = parse(doc);
+    expect(r.ok ? '' : `${r.fault}: ${r.detail}`).toMatch(/^missing-state: .*a_worn/);
+  });
+  it("'bad-value': null (a serialised NaN), a string, Infinity, outside [0, 1] beyond the slack", () => {
+    const withValue = (v: unknown) => `{"format":"crossbound-result/1","method":"m","values":{"both_ok":${v},"a_worn":0,"dry":1},"error_bound":0}`;
+    expect(faultOf(withValue('null'))).toBe('bad-value');
+    expect(faultOf(withValue('"0.5"'))).toBe('bad-value');
+    expect(faultOf(withValue('1e999'))).toBe('bad-value');
+    expect(faultOf(withValue('-0.001'))).toBe('bad-value');
+    expect(faultOf(withValue(String(1 + 2 * VALUE_SLACK)))).toBe('bad-value');
+    // Rounding just past 1 is not an error (0.1 + 0.2 + 0.7 in binary floating point).
+    expect(faultOf(withValue(String(0.1 + 0.2 + 0.7)))).toBe('ok');
+    expect(faultOf(withValue(String(-VALUE_SLACK / 2)))).toBe('ok');
+  });
+  it("'no-bound': missing, null, negative, not finite, not a number", () => {
+    for (const eb of [undefined, null, -1e-9, '1e-6']) expect(faultOf({ ...good(), error_bound: eb })).toBe('no-bound');
+    expect(faultOf(JSON.stringify(good()).replace('"error_bound":0.000001', '"error_bound":1e999'))).toBe('no-bound');
+    expect(faultOf({ ...good(), error_bound: 0 })).toBe('ok');
+  });
+  it('reports the first fault in the documented order', () => {
+    expect(faultOf({ format: 'x', values: {} })).toBe('bad-format');
+    expect(faultOf({ format: 'crossbound-result/1', method: 'm', values: { both_ok: null } })).toBe('missing-state');
+    expect(faultOf({ format: 'crossbound-result/1', method: 'm', values: { both_ok: null, a_worn: 0, dry: 1 } })).toBe('bad-value');
+  });
+});
