@@ -4,6 +4,7 @@
  */
 import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import type { Model } from '../../corpus/format/types.js';
+import Tinypool from 'tinypool';
 import { UsageError } from '../cli/errors.js';
 import { checkModel, type CheckOptions } from './checkModel.js';
 import { collectModelFiles } from './collect.js';
@@ -13,7 +14,10 @@ import { modelPassed } from './types.js';
 export interface RunCheckOptions extends CheckOptions {
   /** 1-based shard index and count: this run checks the files whose position p has p mod N = I − 1. */
   readonly shard?: { index: number; count: number };
+  /** Called after each model is checked, with the number done so far. */
   readonly onProgress?: (done: number, total: number, model: string) => void;
+  /** Worker threads (1: check in this thread). */
+  readonly jobs?: number;
 }
 
 export function parseShard(text: string): { index: number; count: number } {
@@ -37,11 +41,29 @@ export async function runCheck(paths: readonly string[], opts: RunCheckOptions):
     const { index, count } = opts.shard;
     loaded = loaded.filter((_, p) => p % count === index - 1);
   }
-  const reports: ModelReport[] = [];
-  for (const [i, { file, model, warnings }] of loaded.entries()) {
-    opts.onProgress?.(i, loaded.length, model.name);
-    reports.push(await checkModel(file, model, warnings, opts));
+  const jobs = Math.min(opts.jobs ?? 1, loaded.length);
+  const { onProgress, shard: _shard, jobs: _jobs, ...checkOpts } = opts;
+  let reports: ModelReport[];
+  if (jobs <= 1) {
+    reports = [];
+    for (const [i, { file, model, warnings }] of loaded.entries()) {
+      reports.push(await checkModel(file, model, warnings, checkOpts));
+      onProgress?.(i + 1, loaded.length, model.name);
+    }
+  } else {
+    const pool = new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: jobs, maxThreads: jobs });
+    let done = 0;
+    try {
+      reports = await Promise.all(
+        loaded.map(async ({ file, model }) => {
+          const r = (await pool.run({ file, opts: checkOpts })) as ModelReport;
+          onProgress?.(++done, loaded.length, model.name);
+          return r;
+        }),
+      );
+    } finally {
+      await pool.destroy();
+    }
   }
-  opts.onProgress?.(loaded.length, loaded.length, '');
   return { reports, exitCode: reports.every(modelPassed) ? 0 : 1 };
 }

@@ -1,4 +1,5 @@
 /** `check`: the cross-checking run over a corpus. */
+import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { runCheck, parseShard } from '../check/index.js';
@@ -21,6 +22,7 @@ interface CheckCliOptions {
   shard?: string;
   timeout: string;
   oracleDigits: string;
+  jobs: string;
 }
 
 export function registerCheck(program: Command, setExit: SetExit): void {
@@ -36,6 +38,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--json <file>', 'write every result and verdict as JSON')
     .option('--junit <file>', 'write JUnit XML (one test case per model and check)')
     .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
+    .option('--jobs <n>', 'worker threads', String(availableParallelism()))
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
       const methods = o.methods === 'none' ? [] : (o.methods ?? '').split(',').map((s) => s.trim()).filter(Boolean);
@@ -47,6 +50,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         }
       }
       const shard = o.shard ? parseShard(o.shard) : undefined;
+      const jobs = parsePositiveInt(o.jobs, '--jobs', 256);
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
       const oracleDigits = parsePositiveInt(o.oracleDigits, '--oracle-digits', 200);
       const bar = process.stderr.isTTY
@@ -59,6 +63,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         solvers: o.solver,
         timeoutMs,
         oracleDigits,
+        jobs,
         ...(shard ? { shard } : {}),
         onProgress: (done, total, model) => {
           if (bar) {
@@ -66,7 +71,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
             started = true;
             bar.update(done, { model });
             if (done === total) bar.stop();
-          } else if (model) process.stderr.write(`check ${done + 1}/${total}: ${model}\n`);
+          } else process.stderr.write(`check ${done}/${total} done: ${model}\n`);
         },
       });
       process.stdout.write(`${formatCheckReport(reports)}\n`);

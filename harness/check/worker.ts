@@ -1,0 +1,9 @@
+/** A worker thread of `check --jobs N`: checks one model file and returns its report (plain data). */
+import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
+import { checkModel, type CheckOptions } from './checkModel.js';
+import type { ModelReport } from './types.js';
+
+export default async function checkFile(task: { file: string; opts: CheckOptions }): Promise<ModelReport> {
+  const { model, warnings } = loadModelFileWithWarnings(task.file);
+  return checkModel(task.file, model, warnings, task.opts);
+}
