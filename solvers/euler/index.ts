@@ -1,0 +1,125 @@
+/**
+ * Explicit Euler on the Bellman equations of time-bounded reachability (CTMC, CTMDP, CTMG; goal
+ * modes `within` and `at`). The baseline against which the other solvers are cross-checked.
+ *
+ * Method. L. Euler's polygon method (Institutiones calculi integralis, 1768) applied to
+ *     dv/dt = B(v),  B(v)_s = opt_{a ∈ Act(s)} Σ_{s'} R(s,a,s') (v_{s'} − v_s),  v(0) = 1_G,
+ * with t the time left (in mode `within` goal states are frozen at 1; a state without actions is
+ * frozen). With λ ≥ every exit rate and h ≤ 1/λ, one step E_h(x) = x + h·B(x) is, for every
+ * action, the convex combination (1 − hE_a) x_s + Σ hR x_{s'}, so E_h is monotone, commutes with
+ * adding constants, maps [0,1]^S into itself and is sup-norm non-expansive. The last step is a
+ * partial step of length T − n·h, landing exactly on T.
+ *
+ * Bound (our derivation; cf. the Picard-type argument for k-step schemes). Write B = λ(M − I)
+ * with M(y)_s = opt_a Σ P_a(s,s') y_{s'}, P_a = I + Q_a/λ stochastic. M is monotone and commutes
+ * with constants, hence non-expansive, so (i) ‖B(y) − B(z)‖ ≤ 2λ‖y − z‖ and (ii) ‖B(y)‖ ≤ λ on
+ * [0,1]^S (|B(y)_s| ≤ E·(max y − min y)). The exact flow Φ of dv/dt = B(v) is non-expansive in the
+ * sup norm (B is quasi-monotone and commutes with constants: the comparison principle). The max/min
+ * makes v only piecewise smooth, so we never use v''; in integral form, for x ∈ [0,1]^S and f the
+ * exact solution from x,
+ *     Φ_h(x) − E_h(x) = ∫₀^h [B(f(τ)) − B(x)] dτ,   ‖f(τ) − x‖ ≤ ∫₀^τ ‖B(f)‖ ≤ λτ,
+ * so the local defect is ≤ ∫₀^h 2λ·λτ dτ = (λh)². Globally, with e_i the error after step i,
+ *     e_i ≤ ‖E(v̂) − Φ(v̂)‖ + ‖Φ(v̂) − Φ(v)‖ ≤ (λh_i)² + e_{i−1},
+ * hence |v̂_s(T) − v_s(T)| ≤ λ² Σ_i h_i² = λ²(n h² + h_last²) ≤ λ² h T. The computed iterates stay
+ * within δ ≤ precision of [0,1]^S, which scales (ii) by (1 + 2δ); that factor is included.
+ * Rounding (u = 2^-53, first order, 1 % margin; see step.ts): per step and state, the increment of
+ * ≤ d terms (d = largest row) is off by ≤ (d + 2)u·λh, ignoring lo in differences costs ≤ 2u·λh,
+ * and adding lo and the TwoSum cost ≤ u(λh + u). Summed: u[(d + 5)λT + n·u], plus u for the final
+ * hi + lo, plus 2uλT for the rounded step lengths (|dv/dt| ≤ λ). Step choice:
+ *     h = min( 1/(λ(1 + 2(d + 2)u)), (precision − rounding) / (λ² T (1 + 2·precision)) ).
+ *
+ * Refuses: a precision outside (0, 1) or below the rounding allowance; work = steps × (moving states
+ * + their transitions) above MAX_WORK = 3e9 (minutes of run time: T/h = (λT)²/precision grows fast,
+ * e.g. λT = 10 at precision 1e-8 needs 1e10 steps).
+ * Returns the scheduler found (the decisions of every step, as segments in elapsed time) when the
+ * model has choices and the decisions switch at most MAX_SWITCHES times.
+ */
+import type { CompiledModel } from '../../corpus/format/compile.js';
+import type { Outcome } from '../../corpus/format/result.js';
+import { UNIT_ROUNDOFF as u, clampUnit, goalIndicator, isFrozen, nowSeconds, precisionProblem } from '../shared/numeric.js';
+import { eulerStep, type StepBuffers } from './step.js';
+import { DecisionLog } from './decisions.js';
+
+export const MAX_WORK = 3e9;
+const METHOD = 'euler';
+
+export function solveEuler(m: CompiledModel, opts: { precision: number }): Outcome {
+  const t0 = nowSeconds();
+  const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
+  const precision = opts.precision;
+  const bad = precisionProblem(precision);
+  if (bad) return refuse(bad);
+  const T = m.timeBound;
+  const S = m.nStates;
+
+  // The states that move, their largest exit rate and row.
+  const activeList: number[] = [];
+  let lambda = 0;
+  let d = 0;
+  let work = 0;
+  for (let s = 0; s < S; s++) {
+    if (isFrozen(m, s)) continue;
+    activeList.push(s);
+    work += 1;
+    for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) {
+      const nnz = m.rowStart[a + 1]! - m.rowStart[a]!;
+      work += nnz;
+      if (nnz > d) d = nnz;
+      if (m.exitRate[a]! > lambda) lambda = m.exitRate[a]!;
+    }
+  }
+  const params = { precision };
+
+  // --- special case: nothing moves (λ = 0): v(T) = v(0) ------------------------------------------
+  if (lambda === 0) {
+    return { kind: 'solved', method: METHOD, params, values: goalIndicator(m), errorBound: 0, stats: { steps: 0, h: T, seconds: nowSeconds() - t0 } };
+  }
+
+  const lt = lambda * T;
+  const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 2 * lt);
+  const trunc = precision - roundingFor(MAX_WORK);
+  if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`);
+  const h = Math.min(1 / (lambda * (1 + 2 * (d + 2) * u)), trunc / (lambda * lt * (1 + 2 * precision)));
+  let nFull = Math.floor(T / h);
+  while (nFull > 0 && nFull * h > T) nFull--;
+  const hLast = T - nFull * h;
+  const steps = nFull + (hLast > 0 ? 1 : 0);
+  if (steps * work > MAX_WORK) {
+    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${MAX_WORK} (λT = ${lt})`);
+  }
+  const errorBound = lambda * lambda * (nFull * h * h + hLast * hLast) * (1 + 2 * precision) + roundingFor(steps);
+
+  const init = goalIndicator(m);
+  const buf: StepBuffers = { hi: init, lo: new Float64Array(S), hiNext: Float64Array.from(init), loNext: new Float64Array(S) };
+  const active = Int32Array.from(activeList);
+  const hR = new Float64Array(m.nTransitions);
+  const setStep = (step: number): void => {
+    for (let j = 0; j < hR.length; j++) hR[j] = step * m.rate[j]!;
+  };
+  const log = DecisionLog.forModel(m, activeList);
+  const choice = log ? new Int32Array(S) : undefined;
+
+  setStep(h);
+  for (let i = 0; i < nFull; i++) {
+    eulerStep(m, active, hR, buf, choice);
+    if (log && choice) log.record(choice, i * h);
+  }
+  if (hLast > 0) {
+    setStep(hLast);
+    eulerStep(m, active, hR, buf, choice);
+    if (log && choice) log.record(choice, nFull * h);
+  }
+  const values = new Float64Array(S);
+  for (let s = 0; s < S; s++) values[s] = buf.hi[s]! + buf.lo[s]!;
+  clampUnit(values); // true values lie in [0, 1]: clamping never adds error
+  const scheduler = log?.scheduler(T);
+  return {
+    kind: 'solved',
+    method: METHOD,
+    params,
+    values,
+    errorBound,
+    ...(scheduler ? { scheduler } : {}),
+    stats: { steps, h, seconds: nowSeconds() - t0, ...(log ? { switches: log.switches } : {}) },
+  };
+}
