@@ -22,7 +22,7 @@ import { compile } from '../../corpus/format/compile.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import { schedulerPieces, type Scheduler } from '../../corpus/format/scheduler.js';
 import { isCtmc, type Model } from '../../corpus/format/types.js';
-import { decimalAt, decModel } from '../common/decModel.js';
+import { decimalAt, decModel, type Dec } from '../common/decModel.js';
 import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { propagate, propagateCost, type LeftPiece } from './propagate.js';
 
@@ -60,15 +60,20 @@ export function leftPieces(model: Model, scheduler?: Scheduler): LeftPiece[] {
   return out.reverse();
 }
 
-export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
-  const started = performance.now();
-  const bad = badDigits(opts.digits);
-  if (bad) return refuse(bad);
-  if (!opts.scheduler && !isCtmc(model)) return refuse('the model has choices: give a scheduler, or use the optimal oracle');
-  const digits = opts.digits;
-  const n = model.states.length;
-  const pieces = leftPieces(model, opts.scheduler);
+export interface PiecesValue {
+  readonly values: Dec[];
+  /** A priori bound of the more precise run. */
+  readonly bound: number;
+  /** Disagreement between the two working precisions. */
+  readonly diff: number;
+  readonly precision: number;
+  readonly squarings: number;
+  readonly terms: number;
+}
 
+/** The value of the pieces at two working precisions, or the reason for refusing. */
+export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits: number): PiecesValue | string {
+  const n = model.states.length;
   const probe = decModel(model, decimalAt(20));
   let nnz = 0;
   for (const acts of probe.actions) for (const a of acts) nnz += a.target.length + 1;
@@ -79,38 +84,49 @@ export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
   const lengths = pieces.map((p) => Number(p.length));
   const cost = propagateCost(n, nnz, probe.maxExit, lengths, p1) + propagateCost(n, nnz, probe.maxExit, lengths, p2);
   if (cost > EXPM_BUDGET) {
-    return refuse(`too large for the exact exponential: ${n} states, ‖Q‖T ≈ ${(2 * probe.maxExit * model.timeBound).toPrecision(3)}, ` +
-      `${pieces.length} piece(s), about ${cost.toPrecision(2)} decimal operations (budget ${EXPM_BUDGET})`);
+    return `too large for the exact exponential: ${n} states, ‖Q‖T ≈ ${(2 * probe.maxExit * model.timeBound).toPrecision(3)}, ` +
+      `${pieces.length} piece(s), about ${cost.toPrecision(2)} decimal operations (budget ${EXPM_BUDGET})`;
   }
-
   const r1 = propagate(decModel(model, decimalAt(p1)), pieces);
   const r2 = propagate(decModel(model, decimalAt(p2)), pieces);
   const diff = maxAbsDiff(r1.values, r2.values);
   if (diff > (r1.bound + r2.bound) * 1.5 + 10 ** -(p1 + 2)) {
-    return refuse(`the two working precisions (${p1}, ${p2} digits) disagree by ${diff.toExponential(2)}, ` +
-      `more than their a priori bounds ${r1.bound.toExponential(2)} + ${r2.bound.toExponential(2)}`);
+    return `the two working precisions (${p1}, ${p2} digits) disagree by ${diff.toExponential(2)}, ` +
+      `more than their a priori bounds ${r1.bound.toExponential(2)} + ${r2.bound.toExponential(2)}`;
   }
-  const confirmed = confirmedDigits(r2.bound, diff, digits);
+  return { values: r2.values, bound: r2.bound, diff, precision: p2, squarings: r2.squarings, terms: r2.terms };
+}
+
+export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
+  const started = performance.now();
+  const bad = badDigits(opts.digits);
+  if (bad) return refuse(bad);
+  if (!opts.scheduler && !isCtmc(model)) return refuse('the model has choices: give a scheduler, or use the optimal oracle');
+  const digits = opts.digits;
+  const pieces = leftPieces(model, opts.scheduler);
+  const r = valueOfPieces(model, pieces, digits);
+  if (typeof r === 'string') return refuse(r);
+  const confirmed = confirmedDigits(r.bound, r.diff, digits);
   if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`);
 
-  const values = Float64Array.from(r2.values, (v) => v.toNumber());
+  const values = Float64Array.from(r.values, (v) => v.toNumber());
   return {
     kind: 'solved',
     method: 'oracle',
     params: { digits, oracle: 'expm' },
     values,
-    valuesDecimal: r2.values.map((v) => toDigits(v, confirmed)),
+    valuesDecimal: r.values.map((v) => toDigits(v, confirmed)),
     errorBound: errorBoundFor(confirmed, values),
     ...(opts.scheduler ? { scheduler: opts.scheduler } : {}),
     stats: {
       digitsRequested: digits,
       digitsConfirmed: confirmed,
-      workingPrecision: p2,
-      aPrioriBound: r2.bound,
-      precisionDisagreement: diff,
+      workingPrecision: r.precision,
+      aPrioriBound: r.bound,
+      precisionDisagreement: r.diff,
       pieces: pieces.length,
-      squarings: r2.squarings,
-      taylorTerms: r2.terms,
+      squarings: r.squarings,
+      taylorTerms: r.terms,
       switches: 0,
       seconds: (performance.now() - started) / 1000,
     },

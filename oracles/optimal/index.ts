@@ -1,0 +1,161 @@
+/**
+ * Oracle `optimal`: optimal values of small CTMDPs and CTMGs in high precision, with the optimal
+ * scheduler and a certificate.
+ *
+ * Method (finite optimal control: B. L. Miller, SIAM J. Control 6(2), 1968, for CTMDPs; M. N. Rabe
+ * and S. Schewe, Acta Informatica 48, 2011, for games; both from memory): go forward in time left
+ * from 0 to T. At a segment start the decisions follow from the lexicographic comparison of
+ * derivatives (decide.ts); on the segment the values solve the linear ODE v' = Q_d v, stepped by
+ * Taylor series on a grid (segment.ts); the next switch is the first point where an advantage
+ * exceeds the tie tolerance, found by a certified bisection that cannot skip a positive excursion
+ * (advantage.ts).
+ *
+ * Bound. The values reported are those of the emitted scheduler, recomputed by the exact
+ * exponential (oracles/expm, two working precisions) with its a priori bound. The scheduler is
+ * optimal up to the tie tolerance: on every cell each advantage is certified ≤ tol·ν, so the
+ * scheduler's value satisfies the Bellman equations with a residual ≤ tol·ν, and since the
+ * Bellman flow is non-expansive in the sup norm its value is within tol·ν·T of the optimum; plus the
+ * `lost` terms for uncertified cells and for switching up to wMin late. Digits confirmed require
+ * that this bound AND the disagreement between the Taylor stepping and the exponential are below
+ * half a unit of the last place.
+ *
+ * Certificate (stats): certificateDisagreement (stepping vs exponential), bellmanViolation (largest
+ * opt_a g_a − g_chosen, sign-adjusted, on the cell starts and midpoints of every segment).
+ *
+ * Refuses: more than 30 states, more than 200 segments, more than 20000 grid cells in all (stiff
+ * models with large ν·T), fewer than 10 confirmed digits, and any internal inconsistency.
+ */
+import type { Outcome } from '../../corpus/format/result.js';
+import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
+import type { Model } from '../../corpus/format/types.js';
+import { decimalAt, decModel, type Dec } from '../common/decModel.js';
+import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
+import { valueOfPieces } from '../expm/index.js';
+import type { LeftPiece } from '../expm/propagate.js';
+import { decide } from './decide.js';
+import { runSegment, TooManyCells } from './segment.js';
+
+export const OPTIMAL_MAX_STATES = 30;
+export const OPTIMAL_MAX_SEGMENTS = 200;
+export const OPTIMAL_MAX_CELLS = 20_000;
+
+const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'oracle', reason });
+
+interface Piece {
+  readonly start: Dec;
+  readonly choice: Int32Array;
+}
+
+export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
+  const started = performance.now();
+  const bad = badDigits(opts.digits);
+  if (bad) return refuse(bad);
+  const n = model.states.length;
+  if (n > OPTIMAL_MAX_STATES) return refuse(`the optimal oracle handles at most ${OPTIMAL_MAX_STATES} states, the model has ${n}`);
+  const digits = opts.digits;
+  const probe = decModel(model, decimalAt(20));
+  const nu = 2 * probe.maxExit;
+  const p = digits + 14 + Math.ceil(Math.log10(1 + nu * model.timeBound)) + Math.ceil(Math.log10(n + 1));
+  const D = decimalAt(p);
+  const dm = decModel(model, D);
+  const T = new D(model.timeBoundText);
+  const tolNum = 10 ** -(p - 8);
+  const tol = new D(10).pow(-(p - 8));
+  const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), maxCells: OPTIMAL_MAX_CELLS };
+
+  const pieces: Piece[] = [];
+  let x: Dec[] = [...dm.terminal];
+  let t0 = new D(0);
+  let prev: Int32Array = Int32Array.from(dm.actions, (a) => (a.length > 0 ? 0 : -1));
+  let switches = 0;
+  let cells = 0;
+  let stepBound = 0;
+  let lost = 0;
+  let violation = 0;
+  let order = 0;
+  while (t0.lt(T)) {
+    const dec = decide(dm, x, prev, nu, tol);
+    order = Math.max(order, dec.order);
+    if (pieces.length > 0) {
+      let changed = 0;
+      for (let s = 0; s < n; s++) if (dec.choice[s] !== prev[s]) changed++;
+      if (changed === 0) return refuse(`internal: a switch was located at time left ${t0.toSignificantDigits(12)} but no decision changes`);
+      switches += changed;
+    }
+    if (pieces.length >= OPTIMAL_MAX_SEGMENTS) return refuse(`more than ${OPTIMAL_MAX_SEGMENTS} segments of constant decisions`);
+    pieces.push({ start: t0, choice: dec.choice });
+    let r;
+    try {
+      r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells });
+    } catch (e) {
+      if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`);
+      throw e;
+    }
+    cells += r.cells;
+    stepBound += r.bound;
+    lost += r.lost;
+    violation = Math.max(violation, r.violation);
+    x = r.x;
+    t0 = r.tEnd;
+    prev = dec.choice;
+  }
+  if (violation > tolNum * 1.01) return refuse(`internal: Bellman violation ${violation.toExponential(2)} above the tolerance`);
+
+  // Certificate: the scheduler's own value by the exact exponential.
+  const left: LeftPiece[] = pieces.map((pc, i) => ({
+    length: (i + 1 < pieces.length ? pieces[i + 1]!.start : T).minus(pc.start).toFixed(),
+    choice: pc.choice,
+  }));
+  const cert = valueOfPieces(model, left, digits);
+  if (typeof cert === 'string') return refuse(`certificate: ${cert}`);
+  const diff = maxAbsDiff(x, cert.values);
+  const subopt = nu * tolNum * model.timeBound + lost;
+  if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
+    return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`);
+  }
+  const confirmed = confirmedDigits(cert.bound + subopt, diff, digits);
+  if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`);
+
+  const values = Float64Array.from(cert.values, (v) => v.toNumber());
+  return {
+    kind: 'solved',
+    method: 'oracle',
+    params: { digits, oracle: 'optimal' },
+    values,
+    valuesDecimal: cert.values.map((v) => toDigits(v, confirmed)),
+    errorBound: errorBoundFor(confirmed, values),
+    scheduler: toScheduler(model, pieces, T),
+    stats: {
+      digitsRequested: digits,
+      digitsConfirmed: confirmed,
+      workingPrecision: p,
+      switches,
+      segments: pieces.length,
+      cells,
+      decisionOrder: order,
+      bellmanViolation: violation * nu,
+      certificateDisagreement: diff,
+      suboptimalityBound: subopt,
+      aPrioriBound: cert.bound,
+      seconds: (performance.now() - started) / 1000,
+    },
+  };
+}
+
+/** The pieces (in time left) as a scheduler over elapsed time: piece i covers elapsed (T − end_i, T − start_i]. */
+function toScheduler(model: Model, pieces: readonly Piece[], T: Dec): Scheduler {
+  const choices: Record<string, Segment[]> = {};
+  model.states.forEach((st, s) => {
+    if (st.actions.length < 2) return;
+    const segs: Segment[] = [];
+    for (let i = pieces.length - 1; i >= 0; i--) {
+      const a = pieces[i]!.choice[s]!;
+      const name = st.actions[a < 0 ? 0 : a]!.name;
+      if (segs.length > 0 && segs[segs.length - 1]!.action === name) continue;
+      const end = i + 1 < pieces.length ? pieces[i + 1]!.start : T;
+      segs.push({ from: segs.length === 0 ? 0 : T.minus(end).toNumber(), action: name });
+    }
+    choices[st.name] = segs;
+  });
+  return { model: model.name, choices };
+}
