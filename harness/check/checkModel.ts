@@ -22,6 +22,8 @@ export interface CheckOptions {
   readonly solvers?: readonly string[];
   readonly timeoutMs?: number;
   readonly oracleDigits?: number;
+  /** Per-method precision overriding `precision` (fuzz runs its reference tighter). */
+  readonly methodPrecision?: Readonly<Record<string, number>>;
 }
 
 export function shellQuote(s: string): string {
@@ -46,13 +48,14 @@ export async function checkModel(file: string, model: Model, warnings: string[],
   const compiled = compile(model);
   const ctx = { model, compiled, precision: opts.precision, oracleDigits: opts.oracleDigits ?? 20 };
   const methods: MethodResult[] = [];
-  for (const label of opts.methods ?? INTERNAL_METHODS) methods.push(runInternal(label, ctx));
+  const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;
+  for (const label of opts.methods ?? INTERNAL_METHODS) methods.push(runInternal(label, { ...ctx, precision: precisionOf(label) }));
   for (const [i, template] of (opts.solvers ?? []).entries()) {
     methods.push(await runExternalMethod(template, i, model, compiled, opts));
   }
   const checks = judge(file, model, methods, opts);
   const solve: Solve = async (label, m) => {
-    if (!label.startsWith('solver:')) return runInternal(label, { ...ctx, model: m, compiled: compile(m) });
+    if (!label.startsWith('solver:')) return runInternal(label, { ...ctx, precision: precisionOf(label), model: m, compiled: compile(m) });
     const i = Number(label.split('#')[1]) - 1;
     return runExternalMethod(opts.solvers![i]!, i, m, compile(m), opts);
   };

@@ -16,6 +16,7 @@ import { solveOracle } from '../../oracles/index.js';
 import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
+import { VARIANTS, variantByName } from '../selftest/variants.js';
 import type { MethodResult } from './types.js';
 
 export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'oracle'] as const;
@@ -29,7 +30,11 @@ export interface MethodContext {
 }
 
 /** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
-export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle'; k?: number } {
+export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle' | 'variant'; k?: number } {
+  if (label.startsWith('variant:')) {
+    if (!variantByName(label.slice(8))) throw new Error(`unknown broken variant '${label.slice(8)}' (known: ${VARIANTS.map((v) => v.name).join(', ')})`);
+    return { method: 'variant' };
+  }
   const m = /^kstep(?::(\d+))?$/.exec(label);
   if (m) {
     const k = m[1] === undefined ? 3 : Number(m[1]);
@@ -49,6 +54,8 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
       return solveEuler(ctx.compiled, { precision });
     case 'kstep':
       return solveKstep(ctx.compiled, { precision, k: k! });
+    case 'variant':
+      return variantByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':
       return solveOracle(ctx.model, ctx.scheduler ? { digits: ctx.oracleDigits, scheduler: ctx.scheduler } : { digits: ctx.oracleDigits });
   }

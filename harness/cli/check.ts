@@ -3,7 +3,7 @@ import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { runCheck, parseShard } from '../check/index.js';
-import { parseMethodLabel } from '../check/methods.js';
+import { parseMethodList } from './fuzz.js';
 import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
@@ -41,14 +41,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--jobs <n>', 'worker threads', String(availableParallelism()))
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
-      const methods = o.methods === 'none' ? [] : (o.methods ?? '').split(',').map((s) => s.trim()).filter(Boolean);
-      for (const m of methods) {
-        try {
-          parseMethodLabel(m);
-        } catch (e) {
-          throw new UsageError(`--methods: ${(e as Error).message}`);
-        }
-      }
+      const methods = parseMethodList(o.methods ?? '', '--methods');
       const shard = o.shard ? parseShard(o.shard) : undefined;
       const jobs = parsePositiveInt(o.jobs, '--jobs', 256);
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;

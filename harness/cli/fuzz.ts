@@ -1,0 +1,92 @@
+/** `fuzz` and `selftest`. */
+import type { Command } from 'commander';
+import { runFuzz } from '../fuzz/index.js';
+import { parseMethodLabel } from '../check/methods.js';
+import { runSelftest, formatSelftest } from '../selftest/index.js';
+import type { SetExit } from './commands.js';
+import { UsageError } from './errors.js';
+import { parsePositiveInt, parsePrecision } from './output.js';
+
+const collect = (v: string, prev: string[]): string[] => [...prev, v];
+
+export function parseMethodList(text: string, option: string): string[] {
+  const list = text === 'none' ? [] : text.split(',').map((s) => s.trim()).filter(Boolean);
+  for (const m of list) {
+    try {
+      parseMethodLabel(m);
+    } catch (e) {
+      throw new UsageError(`${option}: ${(e as Error).message}`);
+    }
+  }
+  return list;
+}
+
+export function registerFuzz(program: Command, setExit: SetExit): void {
+  program
+    .command('fuzz')
+    .description('random models through every method and solver; a disagreement is shrunk to a minimal model and saved')
+    .option('--runs <n>', 'number of random models', '200')
+    .option('--seed <s>', 'seed of the run (the same seed replays it exactly)', '1')
+    .option('--max-states <m>', 'largest number of states of a random model', '8')
+    .option('--precision <p>', 'requested precision of the methods under test', '1e-5')
+    .option('--methods <list>', 'own methods under test, comma-separated, or none', 'uniformization,euler,kstep:1,kstep:2,kstep:3')
+    .option('--solver <template>', 'an external solver (repeatable)', collect, [])
+    .option('--timeout <seconds>', 'time limit of one external solver run', '60')
+    .option('--save <dir>', 'folder for the shrunk counterexample', 'corpus/regressions')
+    .option('--no-save', 'do not save the counterexample')
+    .action(async (o: { runs: string; seed: string; maxStates: string; precision: string; methods: string; solver: string[]; timeout: string; save: string | false }) => {
+      const runs = parsePositiveInt(o.runs, '--runs', 1e7);
+      const seed = Number(o.seed);
+      if (!Number.isInteger(seed)) throw new UsageError(`--seed must be a whole number (got '${o.seed}')`);
+      const maxStates = parsePositiveInt(o.maxStates, '--max-states', 40);
+      const precision = parsePrecision(o.precision);
+      const methods = parseMethodList(o.methods, '--methods');
+      const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
+      let last = 0;
+      const summary = await runFuzz({
+        runs,
+        seed,
+        maxStates,
+        precision,
+        methods,
+        solvers: o.solver,
+        timeoutMs,
+        ...(o.save ? { save: o.save } : {}),
+        onProgress: (done, total) => {
+          const pct = Math.floor((100 * done) / total);
+          if (pct >= last + 10 || done === total) {
+            last = pct;
+            process.stderr.write(`fuzz: ${done}/${total} models\n`);
+          }
+        },
+      });
+      if (!summary.failure) {
+        process.stdout.write(`fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, in ${summary.seconds.toFixed(1)} s\n`);
+        return setExit(0);
+      }
+      const f = summary.failure;
+      const lines = [
+        `fuzz: FAILED after ${summary.runs} model(s) (seed ${f.seed}, path ${f.path}), shrunk to ${f.states} state(s), in ${summary.seconds.toFixed(1)} s`,
+        ...f.failed.map((c, i) => `  ${i + 1}. ${c.name}: ${c.detail}`),
+        f.savedTo ? `  saved: ${f.savedTo}` : '  (not saved)',
+        `  reproduce: ${f.reproduce}`,
+      ];
+      process.stdout.write(`${lines.join('\n')}\n`);
+      setExit(1);
+    });
+
+  program
+    .command('selftest')
+    .description('plant each broken variant of the own solvers and report whether the corpus and a short fuzz run catch it')
+    .argument('[paths...]', 'model files or folders', ['corpus'])
+    .option('--fuzz-runs <n>', 'fuzz runs per variant', '100')
+    .option('--seed <s>', 'fuzz seed', '1')
+    .action(async (paths: string[], o: { fuzzRuns: string; seed: string }) => {
+      const runs = parsePositiveInt(o.fuzzRuns, '--fuzz-runs', 1e6);
+      const seed = Number(o.seed);
+      if (!Number.isInteger(seed)) throw new UsageError(`--seed must be a whole number (got '${o.seed}')`);
+      const rows = await runSelftest(paths, { fuzzRuns: runs, seed, onProgress: (v) => process.stderr.write(`selftest: ${v}\n`) });
+      process.stdout.write(`${formatSelftest(rows)}\n`);
+      setExit(rows.every((r) => r.caughtBy.length > 0) ? 0 : 1);
+    });
+}

@@ -1,0 +1,113 @@
+/**
+ * `fuzz`: random models (corpus/generators/random.ts) through the methods and solvers; every
+ * disagreement, broken bound or fault is shrunk by fast-check to a minimal model and saved as a
+ * regression. The same seed replays the same run exactly.
+ *
+ * Each model is solved by the methods under test at `precision` and by a tight reference (kstep:4 at
+ * `referencePrecision`), and judged by the checks of `check` (pairwise rule, range, dominance) —
+ * the same comparator, so fuzz and check cannot disagree about what a disagreement is.
+ */
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import fc from 'fast-check';
+import { buildModel, type ModelObject } from '../../corpus/format/build.js';
+import { exportJson } from '../../corpus/format/export.js';
+import { arbModelObject } from '../../corpus/generators/random.js';
+import { checkModel } from '../check/checkModel.js';
+import type { CheckResult, ModelReport } from '../check/types.js';
+
+export interface FuzzOptions {
+  readonly runs: number;
+  readonly seed: number;
+  readonly maxStates: number;
+  readonly precision: number;
+  /** Methods under test (labels of check), e.g. ['euler', 'kstep:2', 'variant:min-as-max']. */
+  readonly methods: readonly string[];
+  readonly solvers?: readonly string[];
+  readonly timeoutMs?: number;
+  /** Folder for shrunk counterexamples; none: not saved. */
+  readonly save?: string;
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+export interface FuzzFailure {
+  readonly seed: number;
+  readonly path: string;
+  readonly model: ModelObject;
+  readonly states: number;
+  readonly failed: CheckResult[];
+  readonly savedTo?: string;
+  readonly reproduce: string;
+}
+
+export interface FuzzSummary {
+  readonly runs: number;
+  readonly seed: number;
+  readonly seconds: number;
+  readonly failure?: FuzzFailure;
+}
+
+/** The reference of every fuzz run: tight, and of a different order than the methods under test. */
+export const FUZZ_REFERENCE = 'kstep:4';
+export const FUZZ_REFERENCE_PRECISION = 1e-9;
+
+function judgeModel(obj: ModelObject, opts: FuzzOptions): Promise<ModelReport> {
+  const methods = [...new Set([...opts.methods, FUZZ_REFERENCE])];
+  return checkModel('fuzz', buildModel(obj, 'fuzz'), [], {
+    precision: opts.precision,
+    methods,
+    methodPrecision: { [FUZZ_REFERENCE]: FUZZ_REFERENCE_PRECISION },
+    solvers: opts.solvers ?? [],
+    timeoutMs: opts.timeoutMs ?? 60_000,
+  });
+}
+
+export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
+  const t0 = performance.now();
+  const arb = arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' });
+  let done = 0;
+  let lastFailed: CheckResult[] = [];
+  void lastFailed;
+  const prop = fc.asyncProperty(arb, async (obj) => {
+    // fast-check calls the property once per run and once per shrink step.
+    if (done < opts.runs) opts.onProgress?.(++done, opts.runs);
+    const r = await judgeModel(obj, opts);
+    const failed = r.checks.filter((c) => !c.passed);
+    if (failed.length > 0) lastFailed = failed;
+    return failed.length === 0;
+  });
+  const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
+  const seconds = (performance.now() - t0) / 1000;
+  if (!out.failed || !out.counterexample) return { runs: out.numRuns, seed: opts.seed, seconds };
+  const model = out.counterexample[0];
+  const final = await judgeModel(model, opts);
+  lastFailed = final.checks.filter((c) => !c.passed);
+  const failure: Omit<FuzzFailure, 'reproduce' | 'savedTo'> = {
+    seed: opts.seed,
+    path: out.counterexamplePath ?? '',
+    model,
+    states: Object.keys(model.states ?? {}).length,
+    failed: lastFailed,
+  };
+  let savedTo: string | undefined;
+  const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
+  if (opts.save) savedTo = saveRegression(opts.save, failure, opts);
+  const reproduce = savedTo
+    ? `crossbound check ${savedTo} --precision ${opts.precision} --methods ${methods}`
+    : `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --methods ${opts.methods.join(',')}`;
+  return { runs: out.numRuns, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
+}
+
+function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>, opts: FuzzOptions): string {
+  mkdirSync(dir, { recursive: true });
+  const model = buildModel(f.model, 'fuzz');
+  const first = f.failed[0]!;
+  const name = `fuzz-seed${f.seed}-${first.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/-+$/, '')}`.slice(0, 80);
+  const file = join(dir, `${name}.json`);
+  const json = exportJson({ ...model, name }) as unknown as Record<string, unknown>;
+  json.description =
+    `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${opts.precision}, methods ${opts.methods.join(',')}). ` +
+    `Verdict: ${first.name}: ${first.detail}. Kept forever as a regression; every correct solver must pass it.`;
+  writeFileSync(file, `${JSON.stringify(json, null, 2)}\n`);
+  return file;
+}
