@@ -47,6 +47,8 @@ export interface ExternalOptions {
 
 export const DEFAULT_TIMEOUT_MS = 60_000;
 export const DEFAULT_MAX_OUTPUT_BYTES = 64 * 1024 * 1024;
+/** Wait for the pipes to close after a kill or an exit, before closing them from this side. */
+export const GRACE_MS = 2000;
 /** Bytes of stderr kept for the report. */
 export const STDERR_TAIL = 2048;
 
@@ -88,9 +90,22 @@ function runProcess(argv: readonly string[], cwd: string | undefined, timeoutMs:
     let spawnError: Error | undefined;
     let settled = false;
     const child = spawn(argv[0]!, argv.slice(1), { shell: false, detached: true, stdio: ['ignore', 'pipe', 'pipe'], cwd, windowsHide: true });
+    let exitCode: number | null = null;
+    let exitSignal: NodeJS.Signals | null = null;
+    let grace: NodeJS.Timeout | undefined;
+    // A process that left its group (setsid) can hold the pipes open after the group is killed:
+    // after GRACE_MS the pipes are closed from this side and the run ends anyway.
+    const startGrace = (): void => {
+      grace ??= setTimeout(() => {
+        child.stdout.destroy();
+        child.stderr.destroy();
+        finish(exitCode, exitSignal);
+      }, GRACE_MS);
+    };
     const halt = (why: NonNullable<RawRun['stop']>): void => {
       if (stop === undefined) stop = why;
       killGroup(child.pid);
+      startGrace();
     };
     const timer = setTimeout(() => halt('timeout'), timeoutMs);
     child.stdout.on('data', (chunk: Buffer) => {
@@ -103,15 +118,22 @@ function runProcess(argv: readonly string[], cwd: string | undefined, timeoutMs:
       errTail = Buffer.concat([errTail, chunk]);
       if (errTail.length > STDERR_TAIL) errTail = errTail.subarray(errTail.length - STDERR_TAIL);
     });
-    // A process that exits while something in its group still holds the pipes open: kill the
-    // stragglers now (the group still exists, so its id cannot have been reused).
-    child.on('exit', () => {
-      if (!child.stdout.readableEnded || !child.stderr.readableEnded) killGroup(child.pid);
+    // A process that exits while something still holds the pipes open: kill the stragglers in its
+    // group now (while a member lives the group id cannot be reused; if none does, the id was
+    // freed a moment ago and sequential pid allocation will not hand it out again so soon).
+    child.on('exit', (code, signal) => {
+      exitCode = code;
+      exitSignal = signal;
+      if (!child.stdout.readableEnded || !child.stderr.readableEnded) {
+        killGroup(child.pid);
+        startGrace();
+      }
     });
     const finish = (code: number | null, signal: NodeJS.Signals | null): void => {
       if (settled) return;
       settled = true;
       clearTimeout(timer);
+      if (grace) clearTimeout(grace);
       resolve({
         stdout: Buffer.concat(out),
         stderrTail: errTail.toString('utf8'),

@@ -159,4 +159,25 @@ describe('runExternal', () => {
       await rm(side, { recursive: true, force: true });
     }
   });
+
+  it('a grandchild that left the process group and holds stdout cannot hold the run: the pipes are closed after a grace period', async () => {
+    const side = await mkdtemp(join(tmpdir(), 'cb-side-'));
+    const pidFile = join(side, 'pid');
+    const script = `const { spawn } = require('child_process');
+      const c = spawn(process.execPath, ['-e', 'setInterval(() => {}, 1 << 30)'], { detached: true, stdio: ['ignore', 'inherit', 'inherit'] });
+      require('fs').writeFileSync(process.argv[2], String(c.pid));
+      const values = { start: 0.4323323583816936, done: 1, lost: 0 };
+      process.stdout.write(JSON.stringify({ format: 'crossbound-result/1', method: 'inline', values, error_bound: 1e-15 }));
+      process.exit(0);`;
+    let pid = 0;
+    try {
+      const o = await run(inline(script, `{model} ${q(pidFile)}`), { timeoutMs: 30_000 });
+      pid = Number(readFileSync(pidFile, 'utf8'));
+      expect(faultOf(o)).toBe('solved');
+      expect(alive(pid)).toBe(true); // out of reach of a group kill, as expected
+    } finally {
+      if (pid > 0) process.kill(pid, 'SIGKILL'); // the test started it, the test ends it
+      await rm(side, { recursive: true, force: true });
+    }
+  });
 });
