@@ -6,6 +6,7 @@ import { runCheck, parseShard } from '../check/index.js';
 import { parseMethodList } from './fuzz.js';
 import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
+import { htmlReport } from '../reports/html.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
@@ -19,6 +20,7 @@ interface CheckCliOptions {
   methods?: string;
   json?: string;
   junit?: string;
+  report?: string;
   shard?: string;
   timeout: string;
   oracleDigits: string;
@@ -37,6 +39,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--timeout <seconds>', 'time limit of one external solver run', '60')
     .option('--json <file>', 'write every result and verdict as JSON')
     .option('--junit <file>', 'write JUnit XML (one test case per model and check)')
+    .option('--report <file>', 'write the self-contained HTML qualification report')
     .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
     .option('--jobs <n>', 'worker threads', String(availableParallelism()))
     .action(async (paths: string[], o: CheckCliOptions) => {
@@ -70,6 +73,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       process.stdout.write(`${formatCheckReport(reports)}\n`);
       if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, o.shard), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(reports));
+      if (o.report) writeFileAtomic(o.report, await htmlReport(reports, { precision, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
       setExit(exitCode);
     });
 }
