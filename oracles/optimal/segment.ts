@@ -77,7 +77,7 @@ export function runSegment(dm: DecModel, x0: readonly Dec[], d: Int32Array, t0: 
   // Least K whose tail (ν_d h)^{K+1}/(K+1)!/(1 − ν_d h/(K+2)) is below u/1000.
   let K = 1;
   let tail = (nh * nh) / 2;
-  while (tail / (1 - nh / (K + 2)) > u * 1e-3 && K < 2000) {
+  while ((K + 2 <= 2 * nh || tail / (1 - nh / (K + 2)) > u * 1e-3) && K < 2000) {
     K++;
     tail *= nh / (K + 1);
   }
@@ -103,8 +103,6 @@ export function runSegment(dm: DecModel, x0: readonly Dec[], d: Int32Array, t0: 
       }
       return out;
     };
-    check(v);
-    check(sumAt(half));
     let first: Dec | undefined;
     let switchLoss = 0;
     for (const p of pairs) {
@@ -115,6 +113,9 @@ export function runSegment(dm: DecModel, x0: readonly Dec[], d: Int32Array, t0: 
       if (r.at) switchLoss += r.switchLoss;
     }
     bound += cellBound;
+    // Bellman re-check at the cell start and at the midpoint of the part before any switch.
+    check(v);
+    check(sumAt(first && first.lt(half) ? first.times(half) : half));
     if (first) {
       // The switch is placed within wMin after a crossing (the loss of that is in switchLoss).
       lost += o.nu * h.toNumber() * switchLoss;
