@@ -25,7 +25,9 @@
  * Rounding (u = 2^-53, first order, 1 % margin; see step.ts): per step and state, the increment of
  * ≤ d terms (d = largest row) is off by ≤ (d + 2)u·λh, ignoring lo in differences costs ≤ 2u·λh,
  * and adding lo and the TwoSum cost ≤ u(λh + u). Summed: u[(d + 5)λT + n·u], plus u for the final
- * hi + lo, plus 2uλT for the rounded step lengths (|dv/dt| ≤ λ). Step choice:
+ * hi + lo, plus 2uλT for the rounded step lengths (|dv/dt| ≤ λ), plus 3uλT for the inputs (rates and
+ * T are decimals rounded to doubles, relative error ≤ u each: the right-hand side moves by ≤ 2uλ
+ * and the time by ≤ uT). Step choice:
  *     h = min( 1/(λ(1 + 2(d + 2)u)), (precision − rounding) / (λ² T (1 + 2·precision)) ).
  *
  * Refuses: a precision outside (0, 1) or below the rounding allowance; work = steps × (moving states
@@ -76,7 +78,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number }): Outco
   }
 
   const lt = lambda * T;
-  const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 2 * lt);
+  const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 5 * lt);
   const trunc = precision - roundingFor(MAX_WORK);
   if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`);
   const h = Math.min(1 / (lambda * (1 + 2 * (d + 2) * u)), trunc / (lambda * lt * (1 + 2 * precision)));

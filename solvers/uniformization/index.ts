@@ -21,8 +21,11 @@
  * d is the largest row length (P is stochastic, so earlier rounding errors are not amplified).
  * The weighted sum of R − L + 1 vectors and the division by W add ≤ (R − L + 2)u; the weights
  * themselves carry ≤ roundingBound relative error. Per piece:
- *     ρ_p = 1.01 · u · [R_p (3d + 4) + (R_p − L_p + 2)] + roundingBound_p,
- * and errorBound = Σ_p δ_p + Σ_p ρ_p. The tail budget per piece is precision/(2·pieces), lowered
+ *     ρ_p = 1.01 · u · [R_p (3d + 4) + (R_p − L_p + 2) + 3 λ_p τ_p] + roundingBound_p,
+ * where 3uλτ covers the inputs: rates and times are decimals rounded to doubles (relative error
+ * ≤ u each), which moves the generator by ≤ 2uλ in row-sum norm and the piece length by ≤ uτ;
+ * since |dv/dt| ≤ λ and the flows are non-expansive, the value moves by ≤ 3uλτ.
+ * errorBound = Σ_p δ_p + Σ_p ρ_p. The tail budget per piece is precision/(2·pieces), lowered
  * if rounding needs more than half of the precision.
  *
  * Refuses: a model with choices and no scheduler; a piece with λτ > 1e7 (that many mat-vecs);
@@ -91,7 +94,7 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
       if (r.qt === 0) return undefined;
       const w = foxGlynn(r.qt, budget);
       tails += w.tailBound;
-      rounding += 1.01 * UNIT_ROUNDOFF * (w.right * (3 * r.maxRowNnz + 4) + (w.right - w.left + 2)) + w.roundingBound;
+      rounding += 1.01 * UNIT_ROUNDOFF * (w.right * (3 * r.maxRowNnz + 4) + (w.right - w.left + 2) + 3 * r.qt) + w.roundingBound;
       return w;
     });
     return { windows, tails, rounding };
