@@ -19,6 +19,7 @@ import type { Validated } from './validate.js';
 import { validateFlat, validateStates } from './validateForms.js';
 import { GeneratorError, generateModel } from '../generators/index.js';
 import { isMapping } from './rules.js';
+import type { FlatBuilt } from './flatBuild.js';
 
 export { ModelError } from './errors.js';
 
@@ -41,26 +42,27 @@ export function loadModelFileWithWarnings(path: string): Loaded {
 
 export function loadModelTextWithWarnings(text: string, file: string): Loaded {
   const parsed = parseText(text, file);
-  const { obj, warnings } = validateModel(parsed, expandGenerate);
-  return { model: build(obj, file), warnings };
+  const v = validateModel(parsed, expandGenerate);
+  return { model: build(v, file), warnings: v.warnings };
 }
 
 /** Validate the plain object form (as parsed, without positions): errors name the file only. */
 export function validateModelObject(value: unknown, file = '(object)'): Loaded {
   const parsed: Parsed = { file, value, syntax: 'json', locate: () => ({ line: 0, column: 0 }) };
   try {
-    const { obj, warnings } = validateModel(parsed, expandGenerate);
-    return { model: build(obj, file), warnings };
+    const v = validateModel(parsed, expandGenerate);
+    return { model: build(v, file), warnings: v.warnings };
   } catch (e) {
     if (e instanceof ModelError) throw new ModelError(file, undefined, undefined, e.rule, e.message.slice(e.message.indexOf(e.rule) + e.rule.length).trim());
     throw e;
   }
 }
 
-function build(obj: ModelObject, file: string): Model {
+function build(v: Validated, file: string): Model {
   const fallback = basename(file).replace(/\.(ya?ml|json)$/i, '');
   try {
-    return buildModel(obj, fallback);
+    if (v.prebuilt) return assemble(v.obj, v.prebuilt, fallback);
+    return buildModel(v.obj, fallback);
   } catch (e) {
     // Every rule buildModel checks was checked above with a position; reaching here is a bug.
     throw new Error(`internal error: a validated model did not build: ${(e as Error).message}`);
@@ -99,5 +101,26 @@ function expandGenerate(p: Parsed, top: Record<string, unknown>): Validated {
   const form = merged.states !== undefined ? validateStates(inner, merged.states, warnings) : validateFlat(inner, merged.transitions, merged.owners);
   const obj = validateCommon(inner, merged, form, warnings);
   obj.generate = spec;
-  return { obj, warnings };
+  return form.prebuilt ? { obj, warnings, prebuilt: form.prebuilt } : { obj, warnings };
+}
+
+/** The `Model` of a validated object whose states were built by the flat fast path (as buildModel would). */
+function assemble(obj: ModelObject, pre: FlatBuilt, fallbackName: string): Model {
+  const T = obj.time_bound;
+  const goal = [...new Set(obj.goal.map((g) => pre.index.get(g)!))].sort((x, y) => x - y);
+  const initial = obj.initial === undefined ? undefined : pre.index.get(obj.initial);
+  return {
+    name: obj.name ?? fallbackName,
+    ...(obj.description !== undefined ? { description: obj.description } : {}),
+    timeBound: Number(T),
+    timeBoundText: typeof T === 'number' ? String(T) : T.trim(),
+    goalMode: obj.goal_mode ?? 'within',
+    goal,
+    ...(initial !== undefined ? { initial } : {}),
+    states: pre.states,
+    ...(obj.expect
+      ? { expect: { values: { ...obj.expect.values } as Record<string, string>, tolerance: Number(obj.expect.tolerance), source: obj.expect.source } }
+      : {}),
+    ...(obj.generate ? { generated: obj.generate } : {}),
+  };
 }

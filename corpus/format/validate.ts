@@ -11,6 +11,7 @@ import { fail } from './source.js';
 import type { Parsed } from './source.js';
 import { validateFlat, validateStates, warnAt } from './validateForms.js';
 import type { FormResult } from './validateForms.js';
+import type { FlatBuilt } from './flatBuild.js';
 
 export const FORMAT = 'crossbound/1';
 const TOP_KEYS = ['format', 'name', 'description', 'time_bound', 'goal', 'goal_mode', 'initial', 'states', 'transitions', 'owners', 'expect', 'generate'] as const;
@@ -19,6 +20,8 @@ const FORMS = ['states', 'transitions', 'generate'] as const;
 export interface Validated {
   readonly obj: ModelObject;
   readonly warnings: string[];
+  /** The flat form's states, already built; `obj` then carries no `transitions`. */
+  readonly prebuilt?: FlatBuilt;
 }
 
 /** Check the top level; `expand` resolves a `generate` form into an explicit one (see load.ts). */
@@ -35,7 +38,8 @@ export function validateModel(p: Parsed, expand: (p: Parsed, top: Record<string,
   if (forms[0] === 'generate') return expand(p, top);
   const warnings: string[] = [];
   const form = forms[0] === 'states' ? validateStates(p, top.states, warnings) : validateFlat(p, top.transitions, top.owners);
-  return { obj: validateCommon(p, top, form, warnings), warnings };
+  const obj = validateCommon(p, top, form, warnings);
+  return form.prebuilt ? { obj, warnings, prebuilt: form.prebuilt } : { obj, warnings };
 }
 
 /** The keys shared by every form; `form` holds the checked states or rows. */
@@ -65,13 +69,11 @@ export function validateCommon(p: Parsed, top: Record<string, unknown>, form: Fo
   if (goalMode) obj.goal_mode = goalMode;
   if (top.initial !== undefined) obj.initial = top.initial as string;
   if (form.states) obj.states = form.states;
-  if (form.transitions) obj.transitions = form.transitions;
-  if (form.owners) obj.owners = form.owners;
   if (top.expect !== undefined) obj.expect = validateExpect(p, top.expect, form.declared);
   return obj;
 }
 
-function validateExpect(p: Parsed, v: unknown, declared: ReadonlySet<string>): NonNullable<ModelObject['expect']> {
+function validateExpect(p: Parsed, v: unknown, declared: FormResult['declared']): NonNullable<ModelObject['expect']> {
   const e = mapping(p, ['expect'], v, 'expect');
   onlyKeys(p, ['expect'], e, ['values', 'tolerance', 'source'], 'expect');
   for (const k of ['values', 'tolerance', 'source']) if (e[k] === undefined) fail(p, ['expect'], `expect needs values, tolerance and source`, `(${k} is missing)`, 'key');

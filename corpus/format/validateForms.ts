@@ -4,24 +4,28 @@
  * object part; repeated flat rows for one (state, action, successor) are merged into one row whose
  * rate is their exact decimal sum.
  */
-import { Decimal } from 'decimal.js';
 import type { ModelObject, RateInput } from './build.js';
-import { got } from './errors.js';
+import { buildFlat } from './flatBuild.js';
+import type { FlatBuilt } from './flatBuild.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
-import { mapping, name, NAME, NAME_RULE, oneOf, onlyKeys, rate } from './rules.js';
+import { mapping, name, oneOf, onlyKeys, rate } from './rules.js';
 
 type States = NonNullable<ModelObject['states']>;
-type Row = [string, string, string, RateInput];
 const OWNER_RULE = 'owner must be max or min';
 const NEEDS_OWNER = 'a state with two or more actions needs an owner';
-const Exact = Decimal.clone({ precision: 1e9 });
 
 export interface FormResult {
-  readonly declared: ReadonlySet<string>;
+  readonly declared: { has(name: string): boolean };
   readonly states?: States;
-  readonly transitions?: Row[];
-  readonly owners?: Record<string, 'max' | 'min'>;
+  /** The flat form, already built (see flatBuild.ts). */
+  readonly prebuilt?: FlatBuilt;
+}
+
+/** The flat form: validated and built in one pass. */
+export function validateFlat(p: Parsed, v: unknown, ownersRaw: unknown): FormResult {
+  const prebuilt = buildFlat(p, v, ownersRaw);
+  return { declared: prebuilt.index, prebuilt };
 }
 
 export function validateStates(p: Parsed, v: unknown, warnings: string[]): FormResult {
@@ -56,55 +60,6 @@ export function validateStates(p: Parsed, v: unknown, warnings: string[]): FormR
     states[s] = owner === undefined ? { actions } : { owner, actions };
   }
   return { declared, states };
-}
-
-export function validateFlat(p: Parsed, v: unknown, ownersRaw: unknown): FormResult {
-  if (!Array.isArray(v)) fail(p, ['transitions'], 'transitions must be a list of rows [state, action, successor, rate]', got(v));
-  if (v.length === 0) fail(p, ['transitions'], 'a model needs at least one state', '(transitions is empty)');
-  const names = new Set<string>();
-  const checkName = (i: number, j: number, x: unknown): string => {
-    if (typeof x === 'string' && names.has(x)) return x;
-    if (typeof x !== 'string' || !NAME.test(x)) fail(p, ['transitions', i, j], NAME_RULE, got(x));
-    names.add(x);
-    return x;
-  };
-  // Per source state: its first action, and whether a second (distinct) action was seen.
-  const firstAction = new Map<string, string>();
-  const multi = new Map<string, number>();
-  const seen = new Map<string, number>();
-  const rows: Row[] = [];
-  for (let i = 0; i < v.length; i++) {
-    const row: unknown = v[i];
-    if (!Array.isArray(row) || row.length !== 4) {
-      fail(p, ['transitions', i], 'a row must be a list [state, action, successor, rate]', got(row));
-    }
-    const s = checkName(i, 0, row[0]);
-    const a = checkName(i, 1, row[1]);
-    const t = checkName(i, 2, row[2]);
-    const r = rate(p, ['transitions', i, 3], row[3]);
-    const fa = firstAction.get(s);
-    if (fa === undefined) firstAction.set(s, a);
-    else if (fa !== a && !multi.has(s)) multi.set(s, i);
-    const key = `${s}\u0000${a}\u0000${t}`;
-    const prev = seen.get(key);
-    if (prev === undefined) {
-      seen.set(key, rows.length);
-      rows.push([s, a, t, r]);
-    } else {
-      const old = rows[prev]!;
-      old[3] = new Exact(String(old[3])).plus(new Exact(String(r))).toString();
-    }
-  }
-  const owners: Record<string, 'max' | 'min'> = {};
-  const om = mapping(p, ['owners'], ownersRaw, 'owners', true);
-  for (const s in om) {
-    if (!names.has(s)) fail(p, ['owners', s], 'owners must name states that appear in the rows', got(s), 'key');
-    owners[s] = oneOf(p, ['owners', s], om[s], ['max', 'min'] as const, OWNER_RULE);
-  }
-  for (const [s, i] of multi) {
-    if (!(s in owners)) fail(p, ['transitions', i, 1], NEEDS_OWNER, `('${s}' is not in owners)`);
-  }
-  return { declared: names, transitions: rows, ...(ownersRaw !== undefined ? { owners } : {}) };
 }
 
 export function warnAt(p: Parsed, path: readonly (string | number)[], text: string): string {

@@ -4,7 +4,8 @@
  * itself, drawn uniformly from the seed. Rates are log-uniform over `spread` decades below `rate`
  * (rate · 10^(−u · spread), 4 significant digits). `goals` states, drawn from the seed, form the goal.
  * Owners: `max`, `min`, or `mixed` (each owned state's player drawn from the seed).
- * Size: n · actions · branching transitions (n = 10^5, 2 actions, 5 successors: 10^6).
+ * Size: n · actions · branching transitions (n = 10^5, 2 actions, 5 successors: 10^6). Written in the
+ * flat form (rows), so states are numbered in order of first appearance, not s0, s1, ….
  */
 import type { ModelObject, RateInput } from '../format/build.js';
 import type { Owner } from '../format/types.js';
@@ -26,23 +27,22 @@ export function randomSparse(spec: Spec): ModelObject {
   if (branching > n - 1) throw new GeneratorError('branching', `branching must be at most states − 1 = ${n - 1} (got ${branching})`);
   const rng = new Prng(p.seed);
   const names = Array.from({ length: n }, (_, i) => `s${i}`);
-  const states: NonNullable<ModelObject['states']> = {};
+  const transitions: [string, string, string, RateInput][] = [];
+  const owners: Record<string, Owner> = {};
+  const actionNames = Array.from({ length: nActions }, (_, a) => `a${a}`);
   const picked = new Int32Array(branching);
   for (let s = 0; s < n; s++) {
-    const actions: Record<string, Record<string, RateInput>> = {};
     for (let a = 0; a < nActions; a++) {
-      const succ: Record<string, RateInput> = {};
       for (let k = 0; k < branching; k++) {
         let t: number;
         do t = rng.int(n);
         while (t === s || picked.subarray(0, k).includes(t));
         picked[k] = t;
-        succ[names[t]!] = Number((top * 10 ** (-rng.next() * spread)).toPrecision(4));
+        transitions.push([names[s]!, actionNames[a]!, names[t]!, Number((top * 10 ** (-rng.next() * spread)).toPrecision(4))]);
       }
-      actions[`a${a}`] = succ;
     }
     const owner: Owner = player === 'mixed' ? (rng.next() < 0.5 ? 'max' : 'min') : player;
-    states[names[s]!] = nActions >= 2 ? { owner, actions } : { actions };
+    if (nActions >= 2) owners[names[s]!] = owner;
   }
   // Goal states: a partial Fisher–Yates shuffle of the indices.
   const idx = Int32Array.from({ length: n }, (_, i) => i);
@@ -61,6 +61,7 @@ export function randomSparse(spec: Spec): ModelObject {
     time_bound: T,
     goal,
     initial: 's0',
-    states,
+    transitions,
+    owners,
   };
 }

@@ -6,7 +6,8 @@
  * one failed component at rate `repair`. With two or more failed components the crew's choice
  * (`repair_lo`: the lowest-numbered, `repair_hi`: the highest-numbered) is owned by `player`
  * (max: the worst repair order, min: the best). Goal: at least `down` components failed.
- * Size: 2^n states, about (n + 2) · 2^n transitions (n = 17: 131 072 states, ~2.4 · 10^6).
+ * Size: 2^n states, about (n + 2) · 2^n transitions (n = 17: 131 072 states, ~2.4 · 10^6). Written in
+ * the flat form (rows): states are numbered in order of first appearance.
  */
 import type { ModelObject, RateInput } from '../format/build.js';
 import { Params, provenance } from './params.js';
@@ -32,10 +33,11 @@ export function redundantSystem(spec: Spec): ModelObject {
     for (let i = 0; i < n; i++) s += (m >> i) & 1 ? '1' : '0';
     names.push(s);
   }
-  const states: NonNullable<ModelObject['states']> = {};
+  const transitions: [string, string, string, RateInput][] = [];
+  const owners: Record<string, 'max' | 'min'> = {};
   const goal: string[] = [];
   for (let m = 0; m < 1 << n; m++) {
-    const failures: Record<string, RateInput> = {};
+    const failures: number[] = [];
     let count = 0;
     let lo = -1;
     let hi = -1;
@@ -44,13 +46,21 @@ export function redundantSystem(spec: Spec): ModelObject {
         count++;
         if (lo < 0) lo = i;
         hi = i;
-      } else failures[names[m | (1 << i)]!] = fail[i]!;
+      } else failures.push(i);
     }
     if (count >= down) goal.push(names[m]!);
-    const withRepair = (i: number): Record<string, RateInput> => ({ ...failures, [names[m & ~(1 << i)]!]: repair });
-    if (count === 0) states[names[m]!] = { actions: { run: failures } };
-    else if (lo === hi) states[names[m]!] = { actions: { repair: withRepair(lo) } };
-    else states[names[m]!] = { owner: player, actions: { repair_lo: withRepair(lo), repair_hi: withRepair(hi) } };
+    const from = names[m]!;
+    const emit = (action: string, fixed: number): void => {
+      for (const i of failures) transitions.push([from, action, names[m | (1 << i)]!, fail[i]!]);
+      if (fixed >= 0) transitions.push([from, action, names[m & ~(1 << fixed)]!, repair]);
+    };
+    if (count === 0) emit('run', -1);
+    else if (lo === hi) emit('repair', lo);
+    else {
+      owners[from] = player;
+      emit('repair_lo', lo);
+      emit('repair_hi', hi);
+    }
   }
   return {
     format: 'crossbound/1',
@@ -60,6 +70,7 @@ export function redundantSystem(spec: Spec): ModelObject {
     time_bound: T,
     goal,
     initial: names[0]!,
-    states,
+    transitions,
+    owners,
   };
 }
