@@ -22,16 +22,26 @@ export interface OneSwitch {
 }
 
 export function oneSwitch(mu: string, lambda: string, gamma: string, T: string): OneSwitch {
+  return oneSwitchMixed(mu, '0', lambda, gamma, T);
+}
+
+/**
+ * The same family with the second action mixed: rate a to g and b to t (`via` is a = 0, b = λ).
+ * Under it w' = −(a+b)w + b e^{−γτ}; the switch is at e^{(γ−μ)τ*} = b/(a + b − μ), and after it
+ *   w(τ) = C e^{−(a+b)τ} + b e^{−γτ}/(a + b − γ),   C = (e^{−μτ*} − b e^{−γτ*}/(a + b − γ)) e^{(a+b)τ*}.
+ */
+export function oneSwitchMixed(mu: string, a: string, b: string, gamma: string, T: string): OneSwitch {
   const m = new DC(mu);
-  const l = new DC(lambda);
+  const rb = new DC(b);
+  const ab = new DC(a).plus(rb);
   const g = new DC(gamma);
   const t = new DC(T);
-  const tauStar = l.div(l.minus(m)).ln().div(g.minus(m));
+  const tauStar = rb.div(ab.minus(m)).ln().div(g.minus(m));
   const vt = new DC(1).minus(g.neg().times(t).exp());
   if (t.lte(tauStar)) return { tauStar, vs: new DC(1).minus(m.neg().times(t).exp()), vt };
-  const k = l.div(l.minus(g));
-  const C = m.neg().times(tauStar).exp().minus(k.times(g.neg().times(tauStar).exp())).times(l.times(tauStar).exp());
-  const w = C.times(l.neg().times(t).exp()).plus(k.times(g.neg().times(t).exp()));
+  const k = rb.div(ab.minus(g));
+  const C = m.neg().times(tauStar).exp().minus(k.times(g.neg().times(tauStar).exp())).times(ab.times(tauStar).exp());
+  const w = C.times(ab.neg().times(t).exp()).plus(k.times(g.neg().times(t).exp()));
   return { tauStar, vs: new DC(1).minus(w), vt };
 }
 
