@@ -37,13 +37,19 @@ export function eulerStep(
     const own = owner[s]!;
     let best = 0;
     let bestA = a0;
-    for (let a = a0; a < a1; a++) {
-      let acc = 0;
-      const j1 = rowStart[a + 1]!;
-      for (let j = rowStart[a]!; j < j1; j++) acc += hR[j]! * (hi[col[j]!]! - vs);
-      if (a === a0 || (own > 0 ? acc > best : acc < best)) {
-        best = acc;
-        bestA = a;
+    if (a1 - a0 === 1) {
+      // One action: no choice to make (the common case of a CTMC).
+      const j1 = rowStart[a1]!;
+      for (let j = rowStart[a0]!; j < j1; j++) best += hR[j]! * (hi[col[j]!]! - vs);
+    } else {
+      for (let a = a0; a < a1; a++) {
+        let acc = 0;
+        const j1 = rowStart[a + 1]!;
+        for (let j = rowStart[a]!; j < j1; j++) acc += hR[j]! * (hi[col[j]!]! - vs);
+        if (a === a0 || (own > 0 ? acc > best : acc < best)) {
+          best = acc;
+          bestA = a;
+        }
       }
     }
     const inc = best + lo[s]!;
