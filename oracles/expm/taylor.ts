@@ -25,7 +25,7 @@
  * the caller refuses models where that exceeds its budget. Exact zeros are skipped (they stay
  * exact), so sparse and acyclic structure makes it cheaper.
  */
-import type { Dec, DecAction, DecModel } from '../common/decModel.js';
+import type { Dec, DecAction, DecCtor, DecModel } from '../common/decModel.js';
 
 export interface ExpOfGenerator {
   /** exp(Q t) as a dense row-major n×n matrix. */
@@ -91,9 +91,29 @@ export function expOfGenerator(dm: DecModel, choice: Int32Array, t: Dec): ExpOfG
     aCol.push(Int32Array.from([i, ...r.target]));
     aVal.push([r.exit.times(h).neg(), ...r.rate.map((x) => x.times(h))]);
   }
+  const R = taylorThenSquare(dm.D, n, aCol, aVal, K, s);
+  const eTheta = Math.exp(theta);
+  const trunc = 2 * theta ** (K + 1) / factorial(K + 1);
+  const dA = (m + 4) * u * theta;
+  const inputPert = 2 * dA * Math.exp(theta + dA);
+  const taylorRound = 2 * (n + 2 + K + 2) * u * eTheta;
+  let delta = trunc + inputPert + taylorRound;
+  const gamma = (n + 1) * u * 1.01;
+  for (let j = 0; j < s; j++) delta = delta * (2 + delta) + gamma * (1 + delta) ** 2;
+  return { P: R, bound: delta * (1 + 1e-9), squarings: s, terms: K };
+}
+
+/**
+ * The bare numerics, for any matrix given by sparse rows (aCol, aVal) of A = M/2^s:
+ * (Σ_{k≤K} A^k/k!)^(2^s). Bounds are the caller's (the generator case is derived above).
+ */
+export function taylorThenSquare(D: DecCtor, n: number, aCol: readonly Int32Array[], aVal: readonly Dec[][], K: number, s: number): Dec[] {
   const zero = new D(0);
-  let T = identity(dm);
-  const P = identity(dm);
+  const one = new D(1);
+  const I: Dec[] = new Array(n * n).fill(zero);
+  for (let i = 0; i < n; i++) I[i * n + i] = one;
+  let T = I;
+  const P = [...I];
   for (let k = 1; k <= K; k++) {
     const next: Dec[] = new Array(n * n).fill(zero);
     for (let i = 0; i < n; i++) {
@@ -116,19 +136,9 @@ export function expOfGenerator(dm: DecModel, choice: Int32Array, t: Dec): ExpOfG
     }
     T = next;
   }
-  const eTheta = Math.exp(theta);
-  const trunc = 2 * theta ** (K + 1) / factorial(K + 1);
-  const dA = (m + 4) * u * theta;
-  const inputPert = 2 * dA * Math.exp(theta + dA);
-  const taylorRound = 2 * (n + 2 + K + 2) * u * eTheta;
-  let delta = trunc + inputPert + taylorRound;
-  const gamma = (n + 1) * u * 1.01;
   let R = P;
-  for (let j = 0; j < s; j++) {
-    R = square(R, n, zero);
-    delta = delta * (2 + delta) + gamma * (1 + delta) ** 2;
-  }
-  return { P: R, bound: delta * (1 + 1e-9), squarings: s, terms: K };
+  for (let j = 0; j < s; j++) R = square(R, n, zero);
+  return R;
 }
 
 function factorial(k: number): number {
