@@ -86,7 +86,7 @@ function expandGenerate(p: Parsed, top: Record<string, unknown>): Validated {
     made = generateModel(spec);
   } catch (e) {
     if (!(e instanceof GeneratorError)) throw e;
-    fail(p, e.param === undefined ? ['generate'] : ['generate', e.param], 'bad generate parameters:', e.message, e.param === undefined ? 'key' : 'value');
+    fail(p, e.param === undefined ? ['generate'] : ['generate', e.param], 'bad generate parameters:', e.message, e.param === undefined || e.onKey ? 'key' : 'value');
   }
   const merged: Record<string, unknown> = { ...made, generate: undefined };
   for (const k of GENERATE_TOP) if (k !== 'generate' && top[k] !== undefined) merged[k] = top[k];

@@ -6,10 +6,13 @@
 export class GeneratorError extends Error {
   /** The offending key of the `generate` mapping, or undefined for the mapping as a whole. */
   readonly param: string | undefined;
-  constructor(param: string | undefined, message: string) {
+  /** True when the key itself is wrong (an unknown parameter), false when its value is. */
+  readonly onKey: boolean;
+  constructor(param: string | undefined, message: string, onKey = false) {
     super(message);
     this.name = 'GeneratorError';
     this.param = param;
+    this.onKey = onKey;
   }
 }
 
@@ -58,7 +61,7 @@ export class Params {
   /** Call after reading every parameter: refuses keys the family does not know. */
   done(family: string): void {
     for (const k of Object.keys(this.spec)) {
-      if (!this.used.has(k)) throw new GeneratorError(k, `unknown parameter '${k}' of family ${family} (known: ${[...this.used].join(', ')})`);
+      if (!this.used.has(k)) throw new GeneratorError(k, `unknown parameter '${k}' of family ${family} (known: ${[...this.used].join(', ')})`, true);
     }
   }
 }
