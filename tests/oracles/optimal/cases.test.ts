@@ -3,11 +3,13 @@
  * files' descriptions), plus the structure of the optimal scheduler (switch counts and times).
  */
 import { readFileSync } from 'node:fs';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
 import { buildModel, type ModelObject } from '../../../corpus/format/build.js';
 import type { Solved } from '../../../corpus/format/result.js';
 import { stateIndex, type Model } from '../../../corpus/format/types.js';
+import { solveExpm } from '../../../oracles/expm/index.js';
 import { solveOptimal } from '../../../oracles/optimal/index.js';
 import { DC, within } from './closedForm.js';
 
@@ -102,4 +104,40 @@ describe('optimal oracle on corpus/oracle-cases', () => {
     const { m, out } = solveCase('one-switch', 30);
     checkExpect(m, out, 30);
   });
+});
+
+describe('no fixed scheduler beats the optimum on the max-only cases (common practice, no source)', () => {
+  for (const name of ['one-switch', 'tiny-advantage', 'simultaneous-switch', 'early-switch', 'start-tie', 'identical-actions']) {
+    it(`${name}: random two-piece schedulers and a shifted switch do no better`, () => {
+      const m = loadCase(name);
+      const out = solveOptimal(m, { digits: 20 });
+      if (out.kind !== 'solved') throw new Error(out.reason);
+      const T = m.timeBound;
+      fc.assert(
+        fc.property(fc.array(fc.nat(2), { minLength: 2 * m.states.length, maxLength: 2 * m.states.length }), fc.double({ min: 0, max: 1, noNaN: true }), (picks, cut) => {
+          const choices: Record<string, { from: number; action: string }[]> = {};
+          m.states.forEach((st, s) => {
+            if (st.actions.length < 2) return;
+            const a = st.actions[picks[2 * s]! % st.actions.length]!.name;
+            const b = st.actions[picks[2 * s + 1]! % st.actions.length]!.name;
+            choices[st.name] = a === b || cut * T <= 0 ? [{ from: 0, action: a }] : [{ from: 0, action: a }, { from: cut * T, action: b }];
+          });
+          const other = solveExpm(m, { digits: 20, scheduler: { choices } });
+          if (other.kind !== 'solved') throw new Error(other.reason);
+          for (let s = 0; s < m.states.length; s++) expect(other.values[s]! - out.values[s]!).toBeLessThanOrEqual(out.errorBound + other.errorBound);
+        }),
+        { numRuns: 8, seed: 3 },
+      );
+      // Moving every switch of the optimal scheduler by 1% of T loses value (strictly).
+      const shifted: Record<string, { from: number; action: string }[]> = {};
+      for (const [st, segs] of Object.entries(out.scheduler!.choices)) shifted[st] = segs.map((g, i) => (i === 0 ? g : { ...g, from: g.from - 0.01 * T }));
+      const moved = solveExpm(m, { digits: 20, scheduler: { choices: shifted } });
+      if (moved.kind !== 'solved') throw new Error(moved.reason);
+      // (Not for early-switch: by elapsed time 1.48 the tender has left s with probability 1 − e^{−1480}.)
+      if (out.stats.switches! > 0 && name !== 'early-switch') {
+        const loss = Math.max(...out.valuesDecimal!.map((v, s) => new DC(v).minus(new DC(moved.valuesDecimal![s]!)).toNumber()));
+        expect(loss).toBeGreaterThan(1e-19);
+      }
+    });
+  }
 });
