@@ -7,7 +7,7 @@ import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, withinTolerance } from '../compare/index.js';
 import { runExternalMethod } from './external.js';
-import { INTERNAL_METHODS, runInternal } from './methods.js';
+import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, type Solve } from './properties.js';
 import type { CheckResult, MethodResult, ModelReport } from './types.js';
 
@@ -46,7 +46,14 @@ function reproduce(file: string, labels: readonly string[], opts: CheckOptions):
 
 export async function checkModel(file: string, model: Model, warnings: string[], opts: CheckOptions): Promise<ModelReport> {
   const compiled = compile(model);
-  const ctx = { model, compiled, precision: opts.precision, oracleDigits: opts.oracleDigits ?? 20 };
+  const ctx = {
+    model,
+    compiled,
+    precision: opts.precision,
+    oracleDigits: opts.oracleDigits ?? 20,
+    eulerMaxWork: CHECK_EULER_MAX_WORK,
+    kstepMaxIntervals: CHECK_KSTEP_MAX_INTERVALS,
+  };
   const methods: MethodResult[] = [];
   const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;
   for (const label of opts.methods ?? INTERNAL_METHODS) methods.push(runInternal(label, { ...ctx, precision: precisionOf(label) }));

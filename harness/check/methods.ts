@@ -27,7 +27,17 @@ export interface MethodContext {
   readonly precision: number;
   readonly oracleDigits: number;
   readonly scheduler?: Scheduler;
+  /**
+   * Work caps for the run of `check` (so one slow method cannot dominate a corpus run): Euler's
+   * steps × (states + transitions), and the k-step scheme's intervals. A method over its cap is retried
+   * at a coarser precision (see runInternal).
+   */
+  readonly eulerMaxWork?: number;
+  readonly kstepMaxIntervals?: number;
 }
+
+export const CHECK_EULER_MAX_WORK = 3e7;
+export const CHECK_KSTEP_MAX_INTERVALS = 2e4;
 
 /** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
 export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle' | 'variant'; k?: number } {
@@ -51,9 +61,9 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
     case 'uniformization':
       return solveUniformization(ctx.compiled, ctx.scheduler ? { precision, scheduler: ctx.scheduler } : { precision });
     case 'euler':
-      return solveEuler(ctx.compiled, { precision });
+      return solveEuler(ctx.compiled, ctx.eulerMaxWork ? { precision, maxWork: ctx.eulerMaxWork } : { precision });
     case 'kstep':
-      return solveKstep(ctx.compiled, { precision, k: k! });
+      return solveKstep(ctx.compiled, ctx.kstepMaxIntervals ? { precision, k: k!, maxIntervals: ctx.kstepMaxIntervals } : { precision, k: k! });
     case 'variant':
       return variantByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':

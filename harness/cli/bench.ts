@@ -1,7 +1,6 @@
 /** `bench`: intervals or steps, seconds, reported bound and actual error per model, method and precision. */
 import type { Command } from 'commander';
 import { compile } from '../../corpus/format/compile.js';
-import { runBench, formatBenchTable } from '../bench/index.js';
 import { loadAll } from '../check/index.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
@@ -16,13 +15,14 @@ export function registerBench(program: Command, setExit: SetExit): void {
     .option('--methods <list>', 'methods: kstep, euler, uniformization', 'kstep')
     .option('--ks <list>', 'orders of the k-step scheme', '1,2,3,4')
     .option('--json <file>', 'write the rows as JSON')
-    .action((paths: string[], o: { precisions: string; methods: string; ks: string; json?: string }) => {
+    .action(async (paths: string[], o: { precisions: string; methods: string; ks: string; json?: string }) => {
       const precisions = o.precisions.split(',').map((p) => parsePrecision(p.trim(), '--precisions'));
       const methods = o.methods.split(',').map((m) => m.trim());
       for (const m of methods) if (!['kstep', 'euler', 'uniformization'].includes(m)) throw new UsageError(`--methods: unknown method '${m}'`);
       const ks = o.ks.split(',').map((k) => Number(k));
       if (ks.some((k) => !(Number.isInteger(k) && k >= 1 && k <= 8))) throw new UsageError(`--ks must list whole numbers from 1 to 8 (got '${o.ks}')`);
       const models = loadAll(paths).map(({ model }) => ({ name: model.name, compiled: compile(model) }));
+      const { runBench, formatBenchTable } = await import('../bench/index.js');
       const rows = runBench(models, { methods: methods as ('kstep' | 'euler' | 'uniformization')[], ks, precisions });
       process.stdout.write(`${formatBenchTable(rows)}\n`);
       if (o.json) writeFileAtomic(o.json, `${JSON.stringify(rows, null, 1)}\n`);

@@ -6,7 +6,6 @@ import { runCheck, parseShard } from '../check/index.js';
 import { parseMethodList } from './fuzz.js';
 import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
-import { htmlReport } from '../reports/html.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
@@ -73,7 +72,11 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       process.stdout.write(`${formatCheckReport(reports)}\n`);
       if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, o.shard), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(reports));
-      if (o.report) writeFileAtomic(o.report, await htmlReport(reports, { precision, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
+      if (o.report) {
+        // Loaded on demand: the plotting library is large and only the report needs it.
+        const { htmlReport } = await import('../reports/html.js');
+        writeFileAtomic(o.report, await htmlReport(reports, { precision, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
+      }
       setExit(exitCode);
     });
 }

@@ -45,7 +45,8 @@ import { DecisionLog } from './decisions.js';
 export const MAX_WORK = 3e9;
 const METHOD = 'euler';
 
-export function solveEuler(m: CompiledModel, opts: { precision: number }): Outcome {
+/** `maxWork` lowers the work cap (steps × moving states and transitions) below MAX_WORK. */
+export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?: number }): Outcome {
   const t0 = nowSeconds();
   const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
   const precision = opts.precision;
@@ -86,8 +87,9 @@ export function solveEuler(m: CompiledModel, opts: { precision: number }): Outco
   while (nFull > 0 && nFull * h > T) nFull--;
   const hLast = T - nFull * h;
   const steps = nFull + (hLast > 0 ? 1 : 0);
-  if (steps * work > MAX_WORK) {
-    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${MAX_WORK} (λT = ${lt})`);
+  const cap = Math.min(MAX_WORK, opts.maxWork ?? MAX_WORK);
+  if (steps * work > cap) {
+    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`);
   }
   const errorBound = lambda * lambda * (nFull * h * h + hLast * hLast) * (1 + 2 * precision) + roundingFor(steps);
 
