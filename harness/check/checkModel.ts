@@ -31,7 +31,7 @@ export function shellQuote(s: string): string {
 }
 
 function reproduce(file: string, labels: readonly string[], opts: CheckOptions): string {
-  const parts = ['crossbound', 'check', shellQuote(file), '--precision', String(opts.precision)];
+  const parts = ['crossbound', 'check', shellQuote(file), '--precision', opts.precision.toExponential()];
   const own = labels.filter((l) => !l.startsWith('solver:'));
   if (own.length > 0) parts.push('--methods', own.join(','));
   else parts.push('--methods', 'none');

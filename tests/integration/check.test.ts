@@ -39,7 +39,7 @@ describe('crossbound check (the built CLI)', () => {
     expect(existsSync(json)).toBe(false);
   });
   it('a bad model anywhere in the paths stops the run before anything is solved', () => {
-    const bad = tempFile('broken.yaml', 'format: crossbound/1\ntime_bound: 0\ngoal: []\nstates: {}\n');
+    const bad = tempFile('broken.yaml', 'format: crossbound/1\ntime_bound: 0\ngoal: []\nstates: { a: {} }\n');
     const line = expectOneLineError(crossbound(['check', 'corpus/models/kettle-scale.yaml', bad]));
     expect(line).toMatch(/broken\.yaml:2:\d+: .*time_bound/);
   });
