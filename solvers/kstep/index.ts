@@ -31,6 +31,9 @@ export interface KstepOptions {
   /** Largest number of pieces one state may carry in an interval before it is halved (default 32). */
   readonly pieceCap?: number;
   readonly maxIntervals?: number;
+  /** Use exactly this many equal intervals instead of choosing ε from the precision (for studies
+   *  of convergence); the bound is still reported, and the result refused if it exceeds precision. */
+  readonly intervals?: number;
 }
 
 const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'kstep', reason });
@@ -67,14 +70,16 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     return { kind: 'solved', method: 'kstep', params, values: x0, errorBound: 0, scheduler: scheduler(), stats };
   }
   // --- interval length from the bound ----------------------------------------------------------
-  const eps = chooseEpsilon(lambda, T, k, 0.9 * precision);
-  const N = Math.ceil(T / eps);
+  if (opts.intervals !== undefined && !(Number.isInteger(opts.intervals) && opts.intervals >= 1))
+    return refuse(`intervals must be an integer ≥ 1, got ${opts.intervals}`);
+  const eps = opts.intervals ? T / opts.intervals : chooseEpsilon(lambda, T, k, 0.9 * precision);
+  const N = opts.intervals ?? Math.ceil(T / eps);
   const maxIntervals = opts.maxIntervals ?? 1e7;
   const work = N * (m.nTransitions + m.nStates) * ((k * (k + 1)) / 2);
   if (!(N <= maxIntervals) || work > 4e10)
     return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`);
   const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, Math.exp(2 * lambda * eps));
-  if (roundEstimate > 0.1 * precision)
+  if (!opts.intervals && roundEstimate > 0.1 * precision)
     return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`);
 
   // --- the intervals -------------------------------------------------------------------------
@@ -116,7 +121,7 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
   if (errorBound > precision) return refuse(`the bound reached ${errorBound}, above the precision ${precision}`);
   const stats = {
     intervals, maxPieces: w.maxPieces, seconds: (performance.now() - started) / 1000, lambda, epsilon: eps,
-    truncationBound: trunc, roundingBound: round, slowStateLevels: w.slowStates, halvings,
+    truncationBound: trunc, roundingBound: round, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }

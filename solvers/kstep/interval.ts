@@ -2,35 +2,44 @@
  * One interval of the k-step scheme: the Picard levels f¹ … f^k of the Bellman equations on
  * τ ∈ [0, len], from the start values x (the method, its source and its bound: ./bound.ts).
  *
- * Fast path (the common case): a state whose successors all carry one polynomial at level j − 1, and
- * which has one action or one action that is best on the whole interval, gets one polynomial at
- * level j, written as plain coefficients into a typed array (stride k + 1, coefficients in τ). A
- * state whose level-(j−1) function has several pieces is tagged by NaN coefficients; any right-hand
- * side that touches it turns NaN, which sends that state to the slow path without a per-transition
- * test. Slow path: piecewise right-hand sides with merged breakpoints, their envelope over the
- * actions, and the integral (../piecewise/piecewise.ts). If a state needs more than `pieceCap`
- * pieces, the interval is given up (the caller halves it).
+ * Incremental levels. Write f^j_s = Σ_{i≤j} c_i(s) τ^i and rhs_a = Σ_i r_{a,i} τ^i for the
+ * right-hand side of action a on level j − 1. If no successor of s (nor s) changed its coefficients
+ * 0 … j−2 between levels j − 2 and j − 1 ("clean"), then r_{a,0 … j−2} are unchanged too (the same
+ * floating-point operations on the same numbers), so level j only computes r_{a,j−1} from the one
+ * array c_{j−1}: one mat-vec-sized pass per level, which is the common case. A state is "dirty"
+ * at a level when its lower coefficients changed (its decision changed, or it was recomputed from
+ * a dirty successor), and "piecewise" when f^j_s has several pieces (../piecewise/). A state with a
+ * dirty successor recomputes all its coefficients; one with a piecewise successor, or whose best
+ * action is overtaken inside (0, len), takes the slow path: piecewise right-hand sides with merged
+ * breakpoints, their envelope over actions, and the integral. If a state needs more than `pieceCap`
+ * pieces the interval is given up (the caller halves it). Level k is only evaluated at len.
  *
- * Allocation: none per state in the fast path; the slow path allocates its piecewise objects.
+ * Allocation: none per state in the fast paths; the slow path allocates its piecewise objects.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import { absSum, horner } from '../piecewise/poly.js';
+import { absSum } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
 
 export interface KstepWork {
   readonly m: CompiledModel;
   readonly k: number;
-  readonly K1: number;
-  /** Stride of piecewise objects (k + 1: they reach degree k). */
-  readonly PS: number;
-  /** 1 where the state evolves (has a moving action and is not an absorbed goal). */
   readonly active: Uint8Array;
-  F: Float64Array;
-  G: Float64Array;
+  /** C[i][s] = c_i(s) of the current level, i = 1 … k−1 (c_0 = x). */
+  readonly C: Float64Array[];
+  /** r_{a,i} at a·k + i. */
+  readonly R: Float64Array;
+  /** 0 clean, 1 dirty, 2 piecewise: for the previous level (dPrev) and the current one (dCur). */
+  dPrev: Uint8Array;
+  dCur: Uint8Array;
+  nDirtyPrev: number;
+  /** Pending new coefficients of dirty single-piece states, applied after the level's pass. */
+  readonly pendS: Int32Array;
+  readonly pendC: Float64Array;
   pwPrev: Map<number, Piecewise>;
   pwCur: Map<number, Piecewise>;
-  readonly acc: Float64Array;
+  /** Best action (index within the state) on the current level, for states with choices. */
+  readonly act: Int32Array;
   readonly diff: Float64Array;
   /** Decision (global action index) at level k in the last interval, per state; −1 if none. */
   readonly dec: Int32Array;
@@ -38,35 +47,30 @@ export interface KstepWork {
   maxPieces: number;
   coefNorm: number;
   slowStates: number;
+  /** State-levels recomputed in full because a successor (or the state) changed. */
+  dirtyStates: number;
 }
 
-export function makeWork(m: CompiledModel, k: number, active: Uint8Array, x: Float64Array, pieceCap: number): KstepWork {
-  // Stored levels have degree ≤ k − 1 (level k is only evaluated at len): a power-of-two stride ≥ k
-  // keeps one state's coefficients within one cache line; piecewise objects use stride k + 1.
-  let K1 = 1;
-  while (K1 < k) K1 *= 2;
+export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Float64Array, pieceCap: number): KstepWork {
   const S = m.nStates;
-  let maxA = 1;
-  for (let s = 0; s < S; s++) maxA = Math.max(maxA, m.actionStart[s + 1]! - m.actionStart[s]!);
-  const F = new Float64Array(S * K1);
-  const G = new Float64Array(S * K1);
-  for (let s = 0; s < S; s++) if (!active[s]) F[s * K1] = G[s * K1] = x[s]!;
   return {
-    m, k, K1, PS: k + 1, active, F, G, pwPrev: new Map(), pwCur: new Map(), acc: new Float64Array(maxA * K1),
-    diff: new Float64Array(K1), dec: new Int32Array(S).fill(-1), pieceCap, maxPieces: 1, coefNorm: 1, slowStates: 0,
+    m, k, active, C: Array.from({ length: k }, () => new Float64Array(S)), R: new Float64Array(m.nActions * k),
+    dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
+    pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1),
+    pieceCap, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
   };
 }
 
 /**
- * Index (0-based among the state's actions) of the action that is best on all of [0, len], or −1
- * when another one overtakes it inside (0, len). Best at 0 is lexicographic in (value, slope, …).
+ * Index (within the state) of the action that is best on all of [0, len], or −1 when another one
+ * overtakes it inside (0, len). Best at 0 is lexicographic in (value, slope, …); ties: lowest index.
  */
-function dominant(w: KstepWork, nA: number, j: number, len: number, sense: number): number {
-  const { acc, K1, diff } = w;
+function dominant(w: KstepWork, a0: number, nA: number, j: number, len: number, sense: number): number {
+  const { R, k, diff } = w;
   let best = 0;
   for (let b = 1; b < nA; b++) {
     for (let i = 0; i < j; i++) {
-      const d = sense * (acc[b * K1 + i]! - acc[best * K1 + i]!);
+      const d = sense * (R[(a0 + b) * k + i]! - R[(a0 + best) * k + i]!);
       if (d > 0) {
         best = b;
         break;
@@ -78,147 +82,127 @@ function dominant(w: KstepWork, nA: number, j: number, len: number, sense: numbe
     if (b === best) continue;
     let rest = 0;
     let p = 1;
-    for (let i = 0; i < j; i++) diff[i] = sense * (acc[b * K1 + i]! - acc[best * K1 + i]!);
+    for (let i = 0; i < j; i++) diff[i] = sense * (R[(a0 + b) * k + i]! - R[(a0 + best) * k + i]!);
     for (let i = 1; i < j; i++) {
       p *= len;
       rest += Math.abs(diff[i]!) * p;
     }
     if (diff[0]! + rest <= 0) continue;
-    const roots = realRoots(diff, 0, j - 1, 0, len);
-    for (const r of roots) if (r > 0 && r < len) return -1;
+    for (const r of realRoots(diff, 0, j - 1, 0, len)) if (r > 0 && r < len) return -1;
   }
   return best;
 }
 
-function fnOf(w: KstepWork, u: number, deg: number, len: number, x: Float64Array): Piecewise {
-  if (deg === 0) return single(x, u, 0, w.PS, 0, len);
-  const o = u * w.K1;
-  const F = w.F;
-  if (F[o] !== F[o]) return w.pwPrev.get(u)!;
-  return single(F, o, deg, w.PS, 0, len);
-}
-
-/**
- * The slow path for state s at level j: stores f^j_s (levels below k) and returns f^j_s(len); NaN
- * when the piece cap is exceeded.
- */
-function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Array): number {
-  const { m, K1, PS } = w;
+/** Slow path for s at level j: returns f^j_s(len), or NaN when the piece cap is exceeded. */
+function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Array, nPend: { n: number }): number {
+  const { m, k } = w;
+  const PS = k + 1;
   w.slowStates++;
   const a0 = m.actionStart[s]!;
   const nA = m.actionStart[s + 1]! - a0;
   const rhs: Piecewise[] = [];
-  const self = fnOf(w, s, j - 1, len, x);
   for (let a = a0; a < a0 + nA; a++) {
-    const terms: { w: number; f: Piecewise }[] = [{ w: -m.exitRate[a]!, f: self }];
-    for (let t = m.rowStart[a]!; t < m.rowStart[a + 1]!; t++) terms.push({ w: m.rate[t]!, f: fnOf(w, m.col[t]!, j - 1, len, x) });
-    rhs.push(linearCombination(terms, j - 1, PS));
+    // Single-piece successors are summed into one polynomial; only piecewise ones bring breakpoints.
+    const base = new Float64Array(PS);
+    const terms: { w: number; f: Piecewise }[] = [];
+    const add = (u: number, r: number): void => {
+      if (w.dPrev[u] === 2) {
+        terms.push({ w: r, f: w.pwPrev.get(u)! });
+        return;
+      }
+      base[0] += r * x[u]!;
+      for (let i = 1; i < j; i++) base[i] += r * w.C[i]![u]!;
+    };
+    for (let t = m.rowStart[a]!; t < m.rowStart[a + 1]!; t++) add(m.col[t]!, m.rate[t]!);
+    add(s, -m.exitRate[a]!);
+    const poly = single(base, 0, j - 1, PS, 0, len);
+    rhs.push(terms.length === 0 ? poly : linearCombination([{ w: 1, f: poly }, ...terms], j - 1, PS));
   }
-  const sense = m.owner[s]! < 0 ? -1 : 1;
-  const env = nA > 1 ? envelope(rhs, sense, j - 1) : rhs[0]!;
+  const env = nA > 1 ? envelope(rhs, m.owner[s]! < 0 ? -1 : 1, j - 1) : rhs[0]!;
   const f = integrate(env, x[s]!, j - 1);
   const n = pieceCount(f);
   if (n > w.pieceCap) return NaN;
   if (n > w.maxPieces) w.maxPieces = n;
   for (let i = 0; i < n; i++) w.coefNorm = Math.max(w.coefNorm, absSum(f.coef, i * PS, j, len));
-  if (j === w.k && nA > 1) {
-    const lenOf = new Float64Array(nA);
-    for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
-    let best = 0;
-    for (let a = 1; a < nA; a++) if (lenOf[a]! > lenOf[best]!) best = a;
-    w.dec[s] = a0 + best;
+  w.act[s] = -1;
+  if (j === k) {
+    if (nA > 1) {
+      const lenOf = new Float64Array(nA);
+      for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
+      let best = 0;
+      for (let a = 1; a < nA; a++) if (lenOf[a]! > lenOf[best]!) best = a;
+      w.dec[s] = a0 + best;
+    }
+    return evaluate(f, len, j);
   }
-  if (j === w.k) return evaluate(f, len, j);
-  const o = s * K1;
   if (n === 1) {
-    for (let i = 0; i <= j; i++) w.G[o + i] = f.coef[i]!;
+    const p = nPend.n++;
+    w.pendS[p] = s;
+    for (let i = 1; i <= j; i++) w.pendC[p * k + i - 1] = f.coef[i]!;
+    w.dCur[s] = 1;
   } else {
     w.pwCur.set(s, f);
-    for (let i = 0; i <= j; i++) w.G[o + i] = NaN;
+    w.dCur[s] = 2;
   }
   return 0;
 }
 
-/**
- * acc[o … o+j−1] = coefficients of Σ_{s'} R(s,a,s')·f_{s'} − E(s,a)·f_s for the level-(j−1) polynomials
- * in F. Unrolled for j ≤ 4 with the sums in registers (the hot loop of the solver).
- */
-function accumulate(m: CompiledModel, a: number, o: number, j: number, F: Float64Array, base: number, acc: Float64Array, stride: number): void {
-  const { rowStart, col, rate } = m;
+/** r_{a,i} for i = lo … j−1 from the coefficient arrays (i = 0 reads x). */
+function accumulate(w: KstepWork, a: number, s: number, lo: number, j: number, x: Float64Array): void {
+  const { rowStart, col, rate, exitRate } = w.m;
   const t0 = rowStart[a]!;
   const t1 = rowStart[a + 1]!;
-  const e = m.exitRate[a]!;
-  if (j === 1) {
-    let c0 = 0;
-    for (let t = t0; t < t1; t++) c0 += rate[t]! * F[col[t]! * stride]!;
-    acc[o] = c0 - e * F[base]!;
-  } else if (j === 2) {
-    let c0 = 0;
-    let c1 = 0;
-    for (let t = t0; t < t1; t++) {
-      const r = rate[t]!;
-      const cb = col[t]! * stride;
-      c0 += r * F[cb]!;
-      c1 += r * F[cb + 1]!;
-    }
-    acc[o] = c0 - e * F[base]!;
-    acc[o + 1] = c1 - e * F[base + 1]!;
-  } else if (j === 3) {
-    let c0 = 0;
-    let c1 = 0;
-    let c2 = 0;
-    for (let t = t0; t < t1; t++) {
-      const r = rate[t]!;
-      const cb = col[t]! * stride;
-      c0 += r * F[cb]!;
-      c1 += r * F[cb + 1]!;
-      c2 += r * F[cb + 2]!;
-    }
-    acc[o] = c0 - e * F[base]!;
-    acc[o + 1] = c1 - e * F[base + 1]!;
-    acc[o + 2] = c2 - e * F[base + 2]!;
-  } else if (j === 4) {
-    let c0 = 0;
-    let c1 = 0;
-    let c2 = 0;
-    let c3 = 0;
-    for (let t = t0; t < t1; t++) {
-      const r = rate[t]!;
-      const cb = col[t]! * stride;
-      c0 += r * F[cb]!;
-      c1 += r * F[cb + 1]!;
-      c2 += r * F[cb + 2]!;
-      c3 += r * F[cb + 3]!;
-    }
-    acc[o] = c0 - e * F[base]!;
-    acc[o + 1] = c1 - e * F[base + 1]!;
-    acc[o + 2] = c2 - e * F[base + 2]!;
-    acc[o + 3] = c3 - e * F[base + 3]!;
-  } else {
-    for (let i = 0; i < j; i++) acc[o + i] = 0;
-    for (let t = t0; t < t1; t++) {
-      const r = rate[t]!;
-      const cb = col[t]! * stride;
-      for (let i = 0; i < j; i++) acc[o + i] += r * F[cb + i]!;
-    }
-    for (let i = 0; i < j; i++) acc[o + i] -= e * F[base + i]!;
+  const e = exitRate[a]!;
+  for (let i = lo; i < j; i++) {
+    const c = i === 0 ? x : w.C[i]!;
+    let acc = 0;
+    for (let t = t0; t < t1; t++) acc += rate[t]! * c[col[t]!]!;
+    w.R[a * w.k + i] = acc - e * c[s]!;
   }
+}
+
+/**
+ * r_{a,i} = Σ R(s,a,s')·c_i(s') − E(s,a)·c_i(s) into R, with c the array of coefficient i; with
+ * dPrev given, returns the largest dirtiness among the successors (0 when dPrev is null).
+ */
+function accTop(w: KstepWork, a: number, s: number, i: number, c: Float64Array, dPrev: Uint8Array | null): number {
+  const { rowStart, col, rate, exitRate } = w.m;
+  const t0 = rowStart[a]!;
+  const t1 = rowStart[a + 1]!;
+  let acc = 0;
+  let d = 0;
+  if (dPrev === null) {
+    for (let t = t0; t < t1; t++) acc += rate[t]! * c[col[t]!]!;
+  } else {
+    for (let t = t0; t < t1; t++) {
+      const u = col[t]!;
+      acc += rate[t]! * c[u]!;
+      d |= dPrev[u]!;
+    }
+  }
+  w.R[a * w.k + i] = acc - exitRate[a]! * c[s]!;
+  return d >= 2 ? 2 : d;
 }
 
 /** Runs the k levels on [0, len] from x and writes f^k(len), clamped to [0, 1], into out. */
 export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Float64Array): boolean {
-  const { m, k, K1, active, acc } = w;
+  const { m, k, active, R, C } = w;
   const { actionStart, owner } = m;
   const S = m.nStates;
+  w.dPrev.fill(0);
+  w.nDirtyPrev = 0;
   w.pwPrev.clear();
+  const nPend = { n: 0 };
   for (let j = 1; j <= k; j++) {
-    const F = w.F;
-    const G = w.G;
     const last = j === k;
-    // Level 1 reads f⁰ ≡ x: the dense start vector (smaller than F, so kinder to the cache).
-    const src = j === 1 ? x : F;
-    const sstride = j === 1 ? 1 : K1;
+    const dPrev = w.dPrev;
+    const dCur = w.dCur;
+    const check = w.nDirtyPrev > 0;
+    const cj = j === 1 ? x : C[j - 1]!;
+    const cOut = last ? null : C[j]!;
+    dCur.fill(0);
     w.pwCur = new Map();
+    nPend.n = 0;
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
         if (last) out[s] = x[s]!;
@@ -226,49 +210,62 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
       }
       const a0 = actionStart[s]!;
       const nA = actionStart[s + 1]! - a0;
-      const sb = s * sstride;
-      let nan = false;
-      for (let q = 0; q < nA; q++) {
-        accumulate(m, a0 + q, q * K1, j, src, sb, acc, sstride);
-        if (acc[q * K1] !== acc[q * K1]) nan = true;
+      let dirty = check ? dPrev[s]! : 0;
+      // The new coefficient r_{a,j−1}, noting on the way whether a successor changed; all of them
+      // when one did.
+      if (dirty === 0) for (let q = 0; q < nA && dirty < 2; q++) dirty = Math.max(dirty, accTop(w, a0 + q, s, j - 1, cj, check ? dPrev : null));
+      if (dirty === 1) {
+        for (let q = 0; q < nA && dirty < 2; q++)
+          for (let t = m.rowStart[a0 + q]!; t < m.rowStart[a0 + q + 1]!; t++) if (dPrev[m.col[t]!] === 2) dirty = 2;
+      }
+      if (dirty === 1) {
+        w.dirtyStates++;
+        for (let q = 0; q < nA; q++) accumulate(w, a0 + q, s, 0, j, x);
       }
       let best = 0;
-      if (!nan && nA > 1) best = dominant(w, nA, j, len, owner[s]! < 0 ? -1 : 1);
-      if (nan || best < 0) {
-        const v = slowState(w, s, j, len, x);
+      if (dirty < 2 && nA > 1) best = dominant(w, a0, nA, j, len, owner[s]! < 0 ? -1 : 1);
+      if (dirty === 2 || best < 0) {
+        const v = slowState(w, s, j, len, x, nPend);
         if (v !== v) return false;
         if (last) out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
         continue;
       }
-      const o = best * K1;
+      const o = (a0 + best) * k;
+      if (nA > 1 && j > 1 && best !== w.act[s]) dirty = 1;
+      if (nA > 1) w.act[s] = best;
       const xs = x[s]!;
       let norm = Math.abs(xs);
       let p = 1;
-      if (last) {
-        // f^k(len) = x + Σ_i acc_i len^{i+1}/(i+1), by Horner in len; f^k is not stored.
-        let v = acc[o + j - 1]! / j;
-        for (let i = j - 2; i >= 0; i--) v = v * len + acc[o + i]! / (i + 1);
-        v = xs + v * len;
-        for (let i = 0; i < j; i++) {
-          p *= len;
-          norm += (Math.abs(acc[o + i]!) / (i + 1)) * p;
-        }
-        out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
-        if (nA > 1) w.dec[s] = a0 + best;
-      } else {
-        const base = s * K1;
-        G[base] = xs;
-        for (let i = 0; i < j; i++) {
-          const c = acc[o + i]! / (i + 1);
-          G[base + i + 1] = c;
-          p *= len;
-          norm += Math.abs(c) * p;
-        }
+      for (let i = 0; i < j; i++) {
+        p *= len;
+        norm += (Math.abs(R[o + i]!) / (i + 1)) * p;
       }
       if (norm > w.coefNorm) w.coefNorm = norm;
+      if (last) {
+        // f^k(len) = x + Σ_i r_i len^{i+1}/(i+1), by Horner in len.
+        let v = R[o + j - 1]! / j;
+        for (let i = j - 2; i >= 0; i--) v = v * len + R[o + i]! / (i + 1);
+        v = xs + v * len;
+        out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
+        if (nA > 1) w.dec[s] = a0 + best;
+      } else if (dirty) {
+        const pi = nPend.n++;
+        w.pendS[pi] = s;
+        for (let i = 0; i < j; i++) w.pendC[pi * k + i] = R[o + i]! / (i + 1);
+        dCur[s] = 1;
+      } else {
+        cOut![s] = R[o + j - 1]! / j;
+      }
     }
-    w.F = G;
-    w.G = F;
+    for (let p = 0; p < nPend.n; p++) {
+      const s = w.pendS[p]!;
+      for (let i = 1; i <= j; i++) C[i]![s] = w.pendC[p * k + i - 1]!;
+    }
+    let nd = 0;
+    for (let s = 0; s < S; s++) if (dCur[s]) nd++;
+    w.nDirtyPrev = nd;
+    w.dPrev = dCur;
+    w.dCur = dPrev;
     w.pwPrev = w.pwCur;
   }
   return true;
