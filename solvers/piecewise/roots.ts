@@ -23,7 +23,11 @@ import { absSum, derivative, gamma, horner, trueDegree } from './poly.js';
 
 function sortUniq(rs: number[], lo: number, hi: number): number[] {
   const tol = 1e-13 * (hi - lo);
-  const inside = rs.filter((r) => Number.isFinite(r) && r >= lo && r <= hi).sort((a, b) => a - b);
+  // Roots a few ulps outside (a root at an end, computed with rounding) are clamped onto the end.
+  const inside = rs
+    .filter((r) => Number.isFinite(r) && r >= lo - tol && r <= hi + tol)
+    .map((r) => Math.min(hi, Math.max(lo, r)))
+    .sort((a, b) => a - b);
   const out: number[] = [];
   for (const r of inside) if (out.length === 0 || r - out[out.length - 1]! > tol) out.push(r);
   return out;
