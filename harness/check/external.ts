@@ -6,12 +6,22 @@ import type { CompiledModel } from '../../corpus/format/compile.js';
 import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
+import { splitTemplate } from '../external/template.js';
 import { plainChoices } from './methods.js';
 import type { MethodResult } from './types.js';
 
+/** 'solver:NAME#I': NAME is the last path part of the last word before {model} that looks like a file (the script), else of the command. */
 export function solverLabel(template: string, index: number): string {
-  const first = template.trim().split(/\s+/)[0] ?? 'solver';
-  const base = first.replace(/^['"]|['"]$/g, '').split('/').pop() || 'solver';
+  let words: string[];
+  try {
+    words = splitTemplate(template);
+  } catch {
+    words = [template];
+  }
+  const upTo = words.findIndex((w) => w.includes('{model}'));
+  const before = upTo > 0 ? words.slice(0, upTo) : words.slice(0, 1);
+  const word = [...before].reverse().find((w) => /[/.]/.test(w)) ?? before[0] ?? 'solver';
+  const base = (word.split('/').pop() || 'solver').replace(/[^A-Za-z0-9_.-]/g, '_');
   return `solver:${base}#${index + 1}`;
 }
 
@@ -29,7 +39,8 @@ export async function runExternalMethod(
     timeoutMs: opts.timeoutMs ?? 60_000,
   });
   if (out.kind === 'fault') {
-    return { label, status: 'fault', fault: out.fault, reason: out.detail, seconds: out.seconds };
+    const tail = out.stderrTail?.trim().split('\n').pop();
+    return { label, status: 'fault', fault: out.fault, reason: tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail, seconds: out.seconds };
   }
   const s = out.solved;
   return {
