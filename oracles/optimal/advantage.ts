@@ -9,7 +9,7 @@
  * Unlike sampling, this cannot miss a positive excursion between grid points: every
  * subinterval is either certified ≤ tol or searched. Near a tangency (a double root that does not
  * cross), the bound still shrinks like w², so only O(1) cells per level survive; cells that reach
- * width wMin uncertified, or that exceed the node budget, are returned as `unresolved` with the bound
+ * width √wMin uncertified, or that exceed the node budget, are returned as `unresolved` with the bound
  * ∫ max(P, 0) ≤ Σ sup⁺·w, which the caller adds to its error bound (a missed excursion of height η
  * over a width w changes a value by at most η·w, since the exact evolution is non-expansive).
  *
@@ -59,17 +59,30 @@ export function firstExceed(D: DecCtor, c: readonly Dec[], tol: number, wMin: nu
   let unresolved = 0;
   const half = new D('0.5');
 
+  // Certification stops at width wCert = √wMin: an uncertified cell there costs at most sup⁺·wCert,
+  // where sup⁺ is itself O(tol + |P'|·wCert + M₂·wCert²) — negligible, and the depth stays
+  // O(log(1/wCert)) even for crossings of tiny slope. A crossing found in a cell of width wCert is
+  // then located to wMin by plain bisection on the sign of P − tol.
+  const wCert = Math.sqrt(wMin);
+  const bisect = (lo: Dec, hi: Dec, w: number): Dec => {
+    while (w > wMin) {
+      const mid = lo.plus(hi).times(half);
+      if (evalBoth(mid)[0] > tol) hi = mid;
+      else lo = mid;
+      w /= 2;
+    }
+    return hi;
+  };
   const search = (lo: Dec, hi: Dec, w: number, pHi: number): Dec | undefined => {
     nodes++;
-    if (pHi > tol && w <= wMin) return hi;
     const mid = lo.plus(hi).times(half);
     const [pm, dpm] = evalBoth(mid);
     const spread = Math.abs(dpm) * w / 2 + m2(hi.toNumber()) * w * w / 8;
     const sup = pm + spread + 1e-12 * (Math.abs(pm) + spread) + slack;
     if (sup <= tol) return undefined;
-    if (w <= wMin || nodes > NODE_BUDGET) {
+    if (w <= wCert || nodes > NODE_BUDGET) {
       unresolved += Math.max(sup, 0) * w;
-      return undefined;
+      return pHi > tol ? bisect(lo, hi, w) : undefined;
     }
     return search(lo, mid, w / 2, pm) ?? search(mid, hi, w / 2, pHi);
   };
