@@ -14,7 +14,7 @@
  * Guarantee: |values_s − v_s(T)| ≤ errorBound ≤ precision in every state s.
  * Refuses: k not an integer in 1 … 8, precision not in (0, ∞), a choice state without an owner, more
  * than `maxIntervals` intervals (default 10^7) or more than ~4·10^10 transition-coefficient updates,
- * a rounding allowance above a tenth of the precision, or a piece count that halving the interval
+ * a rounding allowance above ~0.6 of the precision, or a piece count that halving the interval
  * ten times does not bring under the cap.
  * Scheduler: per interval and owned state, the action chosen at level k for the longest part of the
  * interval, in elapsed time (interval [t0, t0+ε] of time left is [T−t0−ε, T−t0] elapsed).
@@ -72,15 +72,25 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
   // --- interval length from the bound ----------------------------------------------------------
   if (opts.intervals !== undefined && !(Number.isInteger(opts.intervals) && opts.intervals >= 1))
     return refuse(`intervals must be an integer ≥ 1, got ${opts.intervals}`);
-  const eps = opts.intervals ? T / opts.intervals : chooseEpsilon(lambda, T, k, 0.9 * precision);
-  const N = opts.intervals ?? Math.ceil(T / eps);
+  // Truncation gets 0.9 of the precision, less when the rounding allowance (estimated with
+  // C = e^{2λε}, see ./bound.ts) needs more than the remaining tenth; refuse when it needs half.
   const maxIntervals = opts.maxIntervals ?? 1e7;
-  const work = N * (m.nTransitions + m.nStates) * ((k * (k + 1)) / 2);
+  let budget = 0.9 * precision;
+  let eps = 0;
+  let N = 0;
+  for (let it = 0; ; it++) {
+    eps = opts.intervals ? T / opts.intervals : chooseEpsilon(lambda, T, k, budget);
+    N = opts.intervals ?? Math.ceil(T / eps);
+    if (!(N <= maxIntervals)) break;
+    const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, Math.exp(2 * lambda * eps));
+    if (opts.intervals || roundEstimate + budget <= 0.99 * precision) break;
+    budget = 0.99 * precision - 1.5 * roundEstimate;
+    if (it >= 3 || budget < 0.4 * precision)
+      return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`);
+  }
+  const work = N * (m.nTransitions + m.nStates) * k;
   if (!(N <= maxIntervals) || work > 4e10)
     return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`);
-  const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, Math.exp(2 * lambda * eps));
-  if (!opts.intervals && roundEstimate > 0.1 * precision)
-    return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`);
 
   // --- the intervals -------------------------------------------------------------------------
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32);
