@@ -52,7 +52,7 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     precision: opts.precision,
     oracleDigits: opts.oracleDigits ?? 20,
     eulerMaxWork: CHECK_EULER_MAX_WORK,
-    kstepMaxIntervals: CHECK_KSTEP_MAX_INTERVALS,
+    kstepMaxIntervals: Math.max(CHECK_KSTEP_MAX_INTERVALS, Math.floor(CHECK_EULER_MAX_WORK / (compiled.nStates + compiled.nTransitions))),
   };
   const methods: MethodResult[] = [];
   const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;

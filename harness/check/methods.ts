@@ -97,7 +97,7 @@ export function runInternal(label: string, ctx: MethodContext): MethodResult {
       }
       const retry = label !== 'oracle' && label !== 'uniformization' && precision * 10 <= 1e-2 && /work|steps|intervals|cap/i.test(out.reason);
       if (!retry) return { label, status: 'refused', reason: out.reason, seconds };
-      precision *= 10;
+      precision = Number((precision * 10).toPrecision(12));
     }
   } catch (e) {
     return { label, status: 'fault', fault: 'exception', reason: (e as Error).message, seconds: (performance.now() - t0) / 1000 };
