@@ -112,11 +112,12 @@ export function formatBenchTable(rows: readonly BenchRow[]): string {
     exp(r.precision),
     r.refused ? 'refused' : String(r.steps ?? '–'),
     r.seconds.toFixed(4),
-    r.refused ? r.refused : exp(r.errorBound),
+    exp(r.errorBound),
     exp(r.actualError),
     r.actualError !== undefined && r.errorBound ? (r.actualError / r.errorBound).toFixed(3) : '–',
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => (i === 6 && b[4] === 'refused' ? 0 : b[i]!.length))));
+  const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]) => cells.map((c, i) => (i < 3 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join('  ').trimEnd();
-  return [line(head), line(widths.map((w) => '-'.repeat(w))), ...body.map(line)].join('\n');
+  const lines = body.map((b, i) => (rows[i]!.refused ? `${line(b)}  (${rows[i]!.refused})` : line(b)));
+  return [line(head), line(widths.map((w) => '-'.repeat(w))), ...lines].join('\n');
 }
