@@ -4,7 +4,7 @@ import { buildModel } from '../../corpus/format/build.js';
 import { solveExpm } from '../../oracles/expm/index.js';
 import { solveOracle } from '../../oracles/index.js';
 import { solveOptimal } from '../../oracles/optimal/index.js';
-import { randomStructure } from './structures.js';
+import { randomStructure } from '../../bench/oracleStructures.js';
 
 const game = buildModel({
   time_bound: '1', goal: ['g'],

@@ -28,9 +28,11 @@ describe.each(Object.keys(FAMILIES))('%s', (family) => {
     expect(model.goal.length).toBeGreaterThan(0);
     expect(model.initial).toBeDefined();
   });
-  test.runIf(RANDOM.includes(family))('another seed, another model', () => {
-    expect(generateModel(spec(12))).not.toEqual(generateModel(spec(11)));
-  });
+  if (RANDOM.includes(family)) {
+    test('another seed, another model', () => {
+      expect(generateModel(spec(12))).not.toEqual(generateModel(spec(11)));
+    });
+  }
   test('unknown parameters are refused', () => {
     expect(() => generateModel({ ...spec(1), colour: 'red' })).toThrow(GeneratorError);
   });

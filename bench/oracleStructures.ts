@@ -1,5 +1,5 @@
 /** Seeded pseudo-random model structures invented for the oracle tests (a linear congruential generator). */
-import type { ModelObject } from '../../corpus/format/build.js';
+import type { ModelObject } from '../corpus/format/build.js';
 
 function lcg(seed: number): () => number {
   let x = seed >>> 0;
