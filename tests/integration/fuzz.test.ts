@@ -1,0 +1,40 @@
+/** fuzz and selftest through the built CLI. */
+import { readdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { crossbound, tempFile } from './cli.js';
+
+describe('crossbound fuzz', () => {
+  it('finds no disagreement among the correct methods (seed 5, 150 models)', () => {
+    const r = crossbound(['fuzz', '--runs', '150', '--seed', '5', '--max-states', '8', '--no-save']);
+    expect(r.stdout).toMatch(/150 random models \(seed 5, up to 8 states\), no disagreement/);
+    expect(r.code).toBe(0);
+  });
+  it('catches a planted broken variant, shrinks it to at most 4 states, saves it, and the same seed replays it', () => {
+    const dir = join(dirname(tempFile('x', '')), 'regressions');
+    const args = ['fuzz', '--runs', '300', '--seed', '3', '--max-states', '8', '--methods', 'kstep:2,variant:min-as-max', '--save', dir];
+    const r = crossbound(args);
+    expect(r.code).toBe(1);
+    const states = Number(/shrunk to (\d+) state/.exec(r.stdout)?.[1]);
+    expect(states).toBeLessThanOrEqual(4);
+    expect(r.stdout).toMatch(/variant:min-as-max/);
+    const saved = readdirSync(dir);
+    expect(saved.length).toBe(1);
+    // The saved model is a valid model, every correct method passes it, and the variant fails on it.
+    const file = join(dir, saved[0]!);
+    expect(crossbound(['check', file, '--methods', 'kstep:2,kstep:4,euler']).code).toBe(0);
+    expect(crossbound(['check', file, '--methods', 'kstep:4,variant:min-as-max']).code).toBe(1);
+    const again = crossbound([...args.slice(0, -2), '--no-save']);
+    const path = (s: string): string | undefined => /path ([0-9:]+)/.exec(s)?.[1];
+    expect(path(again.stdout)).toBe(path(r.stdout));
+  });
+});
+
+describe('crossbound selftest', () => {
+  it('catches every broken variant of the own solvers by name', () => {
+    const r = crossbound(['selftest', 'corpus/models', '--fuzz-runs', '60'], 300_000);
+    expect(r.stdout).toMatch(/selftest: (\d+) of \1 broken variants caught/);
+    for (const v of ['min-as-max', 'selfloop-exit', 'short-tail', 'at-absorbing', 'skip-last', 'bound-third']) expect(r.stdout).toMatch(new RegExp(`^${v}\\s+yes`, 'm'));
+    expect(r.code).toBe(0);
+  }, 300_000);
+});
