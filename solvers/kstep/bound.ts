@@ -33,8 +33,10 @@
  *
  * Rounding (ρ_i), a first-order model with a factor-2 margin, u = 2^−53, γ_n = nu/(1 − nu) (Higham,
  * Accuracy and Stability of Numerical Algorithms, 2002, Lemma 3.1 and §3.1, §5.1). Let d be the
- * longest row plus one, and C ≥ max_s Σ_i |c_i(s)| ε^i over every level's computed coefficients
- * (measured during the solve). At each level the computed iterate differs from the exact image of the
+ * longest row plus one, and C ≥ max_s Σ_i |c_i(s)| ε^i over every level's computed coefficients:
+ * for a single polynomial c_0 = x ∈ [0,1] and c_{i+1} = r_i/(i+1) with |r_i| ≤ 2λ·max|c_i|, so
+ * |c_i| ≤ (2λ)^i/i! and the sum is ≤ e^{2λε}; for the pieces of piecewise results C is measured
+ * during the solve, and the larger of the two is used. At each level the computed iterate differs from the exact image of the
  * previous computed one by at most
  *   δ = 2·[γ_d·2λε·C (dot products of each coefficient) + 2u·C (division, adding x)
  *          + γ_{2k}·2λε·C (the choice between actions from rounded values, integrated over ε)],

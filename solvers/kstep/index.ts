@@ -106,7 +106,7 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     w.coefNorm = 1;
     if (runInterval(w, x, len, next)) {
       trunc += localBound(lambda, len, k);
-      round += roundingBound(lambda, len, k, rowLen, w.coefNorm);
+      round += roundingBound(lambda, len, k, rowLen, Math.max(w.coefNorm, Math.exp(2 * lambda * len)));
       intervals++;
       rec.record(w, t0);
       const tmp = x;

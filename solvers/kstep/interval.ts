@@ -45,6 +45,8 @@ export interface KstepWork {
   readonly dec: Int32Array;
   readonly pieceCap: number;
   maxPieces: number;
+  /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
+   *  a-priori bound e^{2λ·len}, see ./bound.ts). */
   coefNorm: number;
   slowStates: number;
   /** State-levels recomputed in full because a successor (or the state) changed. */
@@ -234,13 +236,6 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
       if (nA > 1 && j > 1 && best !== w.act[s]) dirty = 1;
       if (nA > 1) w.act[s] = best;
       const xs = x[s]!;
-      let norm = Math.abs(xs);
-      let p = 1;
-      for (let i = 0; i < j; i++) {
-        p *= len;
-        norm += (Math.abs(R[o + i]!) / (i + 1)) * p;
-      }
-      if (norm > w.coefNorm) w.coefNorm = norm;
       if (last) {
         // f^k(len) = x + Σ_i r_i len^{i+1}/(i+1), by Horner in len.
         let v = R[o + j - 1]! / j;
