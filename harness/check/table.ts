@@ -4,7 +4,9 @@ import { modelPassed } from './types.js';
 
 export function formatTable(header: readonly string[], rows: readonly (readonly string[])[]): string {
   const width = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
-  const line = (r: readonly string[]): string => r.map((c, i) => (i === 0 ? c.padEnd(width[i]!) : c.padStart(width[i]!))).join('  ').trimEnd();
+  // Numbers are right-aligned, text left-aligned.
+  const numeric = header.map((_, i) => rows.length > 0 && rows.every((r) => /^[-+]?[0-9.,/e+\-]*$|^-$/.test(r[i] ?? '')));
+  const line = (r: readonly string[]): string => r.map((c, i) => (numeric[i] ? c.padStart(width[i]!) : c.padEnd(width[i]!))).join('  ').trimEnd();
   return [line(header), width.map((w) => '-'.repeat(w)).join('  '), ...rows.map(line)].join('\n');
 }
 

@@ -1,4 +1,5 @@
 /** `fuzz` and `selftest`. */
+import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
 import { runFuzz } from '../fuzz/index.js';
 import { parseMethodLabel } from '../check/methods.js';
@@ -81,11 +82,13 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
     .argument('[paths...]', 'model files or folders', ['corpus'])
     .option('--fuzz-runs <n>', 'fuzz runs per variant', '100')
     .option('--seed <s>', 'fuzz seed', '1')
-    .action(async (paths: string[], o: { fuzzRuns: string; seed: string }) => {
+    .option('--jobs <n>', 'worker threads for the corpus run', String(availableParallelism()))
+    .action(async (paths: string[], o: { fuzzRuns: string; seed: string; jobs: string }) => {
       const runs = parsePositiveInt(o.fuzzRuns, '--fuzz-runs', 1e6);
       const seed = Number(o.seed);
       if (!Number.isInteger(seed)) throw new UsageError(`--seed must be a whole number (got '${o.seed}')`);
-      const rows = await runSelftest(paths, { fuzzRuns: runs, seed, onProgress: (v) => process.stderr.write(`selftest: ${v}\n`) });
+      const jobs = parsePositiveInt(o.jobs, '--jobs', 256);
+      const rows = await runSelftest(paths, { fuzzRuns: runs, seed, jobs, onProgress: (v) => process.stderr.write(`selftest: ${v}\n`) });
       process.stdout.write(`${formatSelftest(rows)}\n`);
       setExit(rows.every((r) => r.caughtBy.length > 0) ? 0 : 1);
     });

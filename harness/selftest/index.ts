@@ -19,12 +19,12 @@ export const SELFTEST_REFERENCES = ['uniformization', 'kstep:4', 'oracle'];
 
 export async function runSelftest(
   paths: readonly string[],
-  opts: { fuzzRuns: number; seed: number; precision?: number; onProgress?: (msg: string) => void },
+  opts: { fuzzRuns: number; seed: number; precision?: number; jobs?: number; onProgress?: (msg: string) => void },
 ): Promise<SelftestRow[]> {
   const precision = opts.precision ?? 1e-6;
   const labels = VARIANTS.map((v) => `variant:${v.name}`);
   opts.onProgress?.(`corpus with ${labels.length} planted variants`);
-  const { reports } = await runCheck(paths, { precision, methods: [...SELFTEST_REFERENCES, ...labels], oracleDigits: 20 });
+  const { reports } = await runCheck(paths, { precision, methods: [...SELFTEST_REFERENCES, ...labels], oracleDigits: 20, jobs: opts.jobs ?? 1 });
   const rows: SelftestRow[] = [];
   for (const v of VARIANTS) {
     const label = `variant:${v.name}`;

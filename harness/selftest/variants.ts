@@ -8,6 +8,7 @@ import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveEuler } from '../../solvers/euler/index.js';
+import { CHECK_EULER_MAX_WORK } from '../check/methods.js';
 import { chooseEpsilon } from '../../solvers/kstep/bound.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
@@ -75,7 +76,7 @@ export const VARIANTS: readonly Variant[] = [
     name: 'bound-third',
     bug: 'the reported bound is a third of the derived one (Euler)',
     solve: (_model, m, p) => {
-      const out = solveEuler(m, { precision: p });
+      const out = solveEuler(m, { precision: p, maxWork: CHECK_EULER_MAX_WORK });
       return relabel(out.kind === 'solved' ? { ...out, errorBound: out.errorBound / 3 } : out, 'bound-third');
     },
   },
