@@ -91,7 +91,7 @@ table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding
 .plots{display:flex;flex-wrap:wrap;gap:1em}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
 </style></head><body>
 <h1>crossbound qualification report</h1>
-<p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${passed} of ${reports.length} models pass every check; ${failures.length} failed check(s). Requested precision ${meta.precision}.</p>
+<p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${passed} of ${reports.length} models pass every check; ${failures.length} failed check(s). Requested precision ${meta.precision.toExponential()}.</p>
 <p class="caution">${esc(CAUTION)}</p>
 <h2>Corpus coverage</h2><p>${esc(kinds)}; goal modes: ${reports.filter((r) => r.goalMode === 'within').length} within, ${reports.filter((r) => r.goalMode === 'at').length} at.</p>${coverage}
 <h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one.</p>${auditHtml}

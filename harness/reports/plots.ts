@@ -9,7 +9,7 @@ import * as vega from 'vega';
 import { compile as compileVl, type TopLevelSpec } from 'vega-lite';
 import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
-import { solveWith } from '../check/methods.js';
+import { CHECK_EULER_MAX_WORK, solveWith } from '../check/methods.js';
 
 export interface ErrorPoint { k: number; intervals: number; error: number; precision: number }
 export interface TimePoint { method: string; precision: number; seconds: number }
@@ -28,7 +28,7 @@ export function logLogSlope(points: readonly { x: number; y: number }[]): number
 
 export function measureConvergence(model: Model, reference: readonly number[], referenceBound: number): { points: ErrorPoint[]; times: TimePoint[] } {
   const compiled = compile(model);
-  const ctx = { model, compiled, precision: 1e-6, oracleDigits: 20 };
+  const ctx = { model, compiled, precision: 1e-6, oracleDigits: 20, eulerMaxWork: CHECK_EULER_MAX_WORK, kstepMaxIntervals: 1e6 };
   const points: ErrorPoint[] = [];
   const times: TimePoint[] = [];
   const precisions = [1e-2, 1e-3, 1e-4, 1e-5, 1e-6, 1e-7, 1e-8];
@@ -50,7 +50,8 @@ export function measureConvergence(model: Model, reference: readonly number[], r
 }
 
 export function measureValueCurve(model: Model, state: number, steps = 16): ValuePoint[] {
-  const out: ValuePoint[] = [];
+  // At time bound 0 the value is the goal indicator.
+  const out: ValuePoint[] = [{ time: 0, value: model.goal.includes(state) ? 1 : 0 }];
   for (let i = 1; i <= steps; i++) {
     const T = (model.timeBound * i) / steps;
     const m = { ...model, timeBound: T, timeBoundText: String(T) };
