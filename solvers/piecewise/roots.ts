@@ -73,7 +73,7 @@ function cubic(c0: number, c1: number, c2: number, c3: number): number[] {
   const disc = (q * q) / 4 + (p * p * p) / 27;
   if (disc < 0) {
     const m = 2 * Math.sqrt(-p / 3);
-    const arg = Math.max(-1, Math.min(1, ((3 * q) / (p * m)) * 1));
+    const arg = Math.max(-1, Math.min(1, (3 * q) / (p * m)));
     const theta = Math.acos(arg);
     return [0, 1, 2].map((k) => m * Math.cos(theta / 3 - (2 * Math.PI * k) / 3) + shift);
   }
@@ -123,7 +123,10 @@ export function isolateRoots(c: ArrayLike<number>, off: number, deg: number, lo:
   return sortUniq(roots, lo, hi);
 }
 
-/** Number of sign changes of p over the points lo < r_1 < … < hi, with p evaluated between them. */
+/**
+ * Whether the closed-form roots explain the signs: with no inner root the ends must agree in sign,
+ * and p must be clearly nonzero (beyond its evaluation error) between consecutive roots.
+ */
 function consistent(c: ArrayLike<number>, off: number, d: number, lo: number, hi: number, roots: number[]): boolean {
   const fl = horner(c, off, d, lo);
   const fh = horner(c, off, d, hi);
