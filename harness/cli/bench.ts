@@ -1,6 +1,7 @@
 /** `bench`: intervals or steps, seconds, reported bound and actual error per model, method and precision. */
 import type { Command } from 'commander';
 import { compile } from '../../corpus/format/compile.js';
+import { solveOracle } from '../../oracles/index.js';
 import { loadAll } from '../check/index.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
@@ -21,7 +22,15 @@ export function registerBench(program: Command, setExit: SetExit): void {
       for (const m of methods) if (!['kstep', 'euler', 'uniformization'].includes(m)) throw new UsageError(`--methods: unknown method '${m}'`);
       const ks = o.ks.split(',').map((k) => Number(k));
       if (ks.some((k) => !(Number.isInteger(k) && k >= 1 && k <= 8))) throw new UsageError(`--ks must list whole numbers from 1 to 8 (got '${o.ks}')`);
-      const models = loadAll(paths).map(({ model }) => ({ name: model.name, compiled: compile(model) }));
+      // The reference: the high-precision oracle at 25 digits, where it applies (small models).
+      const models = loadAll(paths).map(({ model }) => {
+        const ref = model.states.length <= 30 ? solveOracle(model, { digits: 25 }) : undefined;
+        return {
+          name: model.name,
+          compiled: compile(model),
+          ...(ref?.kind === 'solved' ? { reference: ref.values, referenceBound: ref.errorBound } : {}),
+        };
+      });
       const { runBench, formatBenchTable } = await import('../bench/index.js');
       const rows = runBench(models, { methods: methods as ('kstep' | 'euler' | 'uniformization')[], ks, precisions });
       process.stdout.write(`${formatBenchTable(rows)}\n`);
