@@ -43,21 +43,30 @@ export function schedulerPieces(
   for (const segs of Object.values(sched.choices)) for (const g of segs) if (g.from > 0 && g.from < T) cuts.add(g.from);
   const times = [...cuts].sort((x, y) => x - y);
   const byName = new Map(stateNames.map((n, i) => [n, i] as const));
+  // Each state's segments are sorted by `from`; one cursor per state walks them once (linear time).
+  const listed: { s: number; segs: readonly Segment[]; next: number; action: number }[] = [];
+  for (const [name, segs] of Object.entries(sched.choices)) {
+    const s = byName.get(name);
+    if (s !== undefined) listed.push({ s, segs, next: 0, action: -2 });
+  }
+  const resolve = (s: number, name: string): number => {
+    for (let a = actionStart[s]!; a < actionStart[s + 1]!; a++) if (actionNames[a] === name) return a;
+    return -2;
+  };
+  const current = new Int32Array(S);
+  for (let s = 0; s < S; s++) current[s] = actionStart[s + 1]! > actionStart[s]! ? actionStart[s]! : -1;
   const pieces: SchedulerPiece[] = [];
   for (let p = 0; p + 1 < times.length; p++) {
     const start = times[p]!;
     const end = times[p + 1]!;
-    const action = new Int32Array(S);
-    for (let s = 0; s < S; s++) action[s] = actionStart[s + 1]! > actionStart[s]! ? actionStart[s]! : -1;
-    for (const [name, segs] of Object.entries(sched.choices)) {
-      const s = byName.get(name);
-      if (s === undefined) continue;
-      let chosen: string | undefined;
-      for (const g of segs) if (g.from <= start) chosen = g.action;
-      if (chosen === undefined) continue;
-      for (let a = actionStart[s]!; a < actionStart[s + 1]!; a++) if (actionNames[a] === chosen) action[s] = a;
+    for (const l of listed) {
+      while (l.next < l.segs.length && l.segs[l.next]!.from <= start) {
+        const a = resolve(l.s, l.segs[l.next]!.action);
+        if (a !== -2) current[l.s] = a;
+        l.next++;
+      }
     }
-    pieces.push({ start, end, action });
+    pieces.push({ start, end, action: Int32Array.from(current) });
   }
   return pieces;
 }
