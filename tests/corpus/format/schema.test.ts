@@ -13,7 +13,8 @@ import { loadModelFile, ModelError } from '../../../corpus/format/load.js';
 
 const SCHEMA_PATH = join(import.meta.dirname, '../../../corpus/format/model.schema.json');
 const DIR = join(import.meta.dirname, '../../fixtures/models/schema');
-const Ajv2020 = (Ajv2020Module as unknown as { default: typeof Ajv2020Module }).default ?? Ajv2020Module;
+// ajv is CommonJS; under Node's ESM loader its class is the default export's `default`.
+const Ajv2020 = ((Ajv2020Module as unknown as { default?: unknown }).default ?? Ajv2020Module) as unknown as typeof Ajv2020Module.default;
 const ajv = new Ajv2020({ allErrors: true, strict: true, strictRequired: false, allowUnionTypes: true });
 const schemaOk = ajv.compile(JSON.parse(readFileSync(SCHEMA_PATH, 'utf8')));
 

@@ -43,7 +43,7 @@ export function expm(Q: number[][], t: number): number[][] {
   let sq = 0;
   while (norm / 2 ** sq > 0.5) sq++;
   const A = Q.map((r) => r.map((v) => (v * t) / 2 ** sq));
-  let term = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+  let term: number[][] = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
   let sum = term.map((r) => [...r]);
   for (let k = 1; k <= 30; k++) {
     term = matMul(term, A).map((r) => r.map((v) => v / k));

@@ -3,7 +3,7 @@
  * that they are a more precise reference than any double-precision solver. Shared by the
  * uniformization and Euler tests.
  */
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import { buildModel } from '../../../corpus/format/build.js';
 import { compile, type CompiledModel } from '../../../corpus/format/compile.js';
 

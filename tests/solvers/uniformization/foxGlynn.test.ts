@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import poissonPmf from '@stdlib/stats-base-dists-poisson-pmf';
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import { MAX_QT, foxGlynn } from '../../../solvers/uniformization/foxGlynn.js';
 
 // Reference: @stdlib/stats-base-dists-poisson-pmf 0.2.3 (computes exp(k ln λ − λ − ln k!)).
