@@ -69,6 +69,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
           } else process.stderr.write(`check ${done}/${total} done: ${model}\n`);
         },
       });
+      for (const r of reports) for (const w of r.warnings) process.stderr.write(`crossbound: ${w}\n`);
       process.stdout.write(`${formatCheckReport(reports)}\n`);
       if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, o.shard), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(reports));

@@ -13,7 +13,7 @@ import { UsageError } from './errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
 
 function warn(warnings: readonly string[]): void {
-  for (const w of warnings) process.stderr.write(`crossbound: warning: ${w}\n`);
+  for (const w of warnings) process.stderr.write(`crossbound: ${w}\n`);
 }
 
 export function registerSolve(program: Command, setExit: SetExit): void {
