@@ -66,39 +66,32 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const t0 = performance.now();
   const arb = arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' });
   let done = 0;
-  let lastFailed: CheckResult[] = [];
-  void lastFailed;
   const prop = fc.asyncProperty(arb, async (obj) => {
     // fast-check calls the property once per run and once per shrink step.
     if (done < opts.runs) opts.onProgress?.(++done, opts.runs);
     const r = await judgeModel(obj, opts);
-    const failed = r.checks.filter((c) => !c.passed);
-    if (failed.length > 0) lastFailed = failed;
-    return failed.length === 0;
+    return r.checks.every((c) => c.passed);
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
   if (!out.failed || !out.counterexample) return { runs: out.numRuns, seed: opts.seed, seconds };
   const model = out.counterexample[0];
   const final = await judgeModel(model, opts);
-  lastFailed = final.checks.filter((c) => !c.passed);
   const failure: Omit<FuzzFailure, 'reproduce' | 'savedTo'> = {
     seed: opts.seed,
     path: out.counterexamplePath ?? '',
     model,
     states: Object.keys(model.states ?? {}).length,
-    failed: lastFailed,
+    failed: final.checks.filter((c) => !c.passed),
   };
-  let savedTo: string | undefined;
+  const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${opts.precision.toExponential()} --methods ${opts.methods.join(',') || 'none'}`;
+  const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
   const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
-  if (opts.save) savedTo = saveRegression(opts.save, failure, opts);
-  const reproduce = savedTo
-    ? `crossbound check ${savedTo} --precision ${opts.precision} --methods ${methods}`
-    : `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --methods ${opts.methods.join(',')}`;
+  const reproduce = savedTo ? `crossbound check ${savedTo} --precision ${opts.precision.toExponential()} --methods ${methods}` : replay;
   return { runs: out.numRuns, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
 }
 
-function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>, opts: FuzzOptions): string {
+function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>, opts: FuzzOptions, replay: string): string {
   mkdirSync(dir, { recursive: true });
   const model = buildModel(f.model, 'fuzz');
   const first = f.failed[0]!;
@@ -106,8 +99,9 @@ function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo
   const file = join(dir, `${name}.json`);
   const json = exportJson({ ...model, name }) as unknown as Record<string, unknown>;
   json.description =
-    `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${opts.precision}, methods ${opts.methods.join(',')}). ` +
-    `Verdict: ${first.name}: ${first.detail}. Kept forever as a regression; every correct solver must pass it.`;
+    `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${opts.precision.toExponential()}, methods ${opts.methods.join(',')}). ` +
+    `Verdict: ${first.name}: ${first.detail}. Found by: ${replay}. ` +
+    `Kept forever as a regression; every correct solver must pass it.`;
   writeFileSync(file, `${JSON.stringify(json, null, 2)}\n`);
   return file;
 }
