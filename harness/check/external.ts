@@ -7,7 +7,7 @@ import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
 import { splitTemplate } from '../external/template.js';
-import { plainChoices } from './methods.js';
+import { solvedResult } from './methods.js';
 import type { MethodResult } from './types.js';
 
 /** 'solver:NAME#I': NAME is the last path part of the last word before {model} that looks like a file (the script), else of the command. */
@@ -42,16 +42,5 @@ export async function runExternalMethod(
     const tail = out.stderrTail?.trim().split('\n').pop();
     return { label, status: 'fault', fault: out.fault, reason: tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail, seconds: out.seconds };
   }
-  const s = out.solved;
-  return {
-    label,
-    status: 'solved',
-    values: [...s.values],
-    ...(s.valuesDecimal ? { valuesDecimal: [...s.valuesDecimal] } : {}),
-    errorBound: s.errorBound,
-    precision: opts.precision,
-    seconds: out.seconds,
-    stats: { ...s.stats },
-    ...(s.scheduler ? { scheduler: { choices: plainChoices(s.scheduler.choices) } } : {}),
-  };
+  return solvedResult(label, out.solved, opts.precision, out.seconds);
 }

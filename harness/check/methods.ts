@@ -9,7 +9,7 @@
  * cross-check.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, Solved } from '../../corpus/format/result.js';
 import type { Scheduler } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveOracle } from '../../oracles/index.js';
@@ -75,6 +75,21 @@ export function plainChoices(c: Scheduler['choices']): Record<string, { from: nu
   return Object.fromEntries(Object.entries(c).map(([s, segs]) => [s, segs.map((g) => ({ from: g.from, action: g.action }))]));
 }
 
+/** A solved outcome as the plain data of a report. */
+export function solvedResult(label: string, out: Solved, precision: number, seconds: number): MethodResult {
+  return {
+    label,
+    status: 'solved',
+    values: [...out.values],
+    ...(out.valuesDecimal ? { valuesDecimal: [...out.valuesDecimal] } : {}),
+    errorBound: out.errorBound,
+    precision,
+    seconds,
+    stats: { ...out.stats },
+    ...(out.scheduler ? { scheduler: { choices: plainChoices(out.scheduler.choices) } } : {}),
+  };
+}
+
 export function runInternal(label: string, ctx: MethodContext): MethodResult {
   const t0 = performance.now();
   let precision = ctx.precision;
@@ -83,17 +98,7 @@ export function runInternal(label: string, ctx: MethodContext): MethodResult {
       const out = solveWith(label, ctx, precision);
       const seconds = (performance.now() - t0) / 1000;
       if (out.kind === 'solved') {
-        return {
-          label,
-          status: 'solved',
-          values: [...out.values],
-          ...(out.valuesDecimal ? { valuesDecimal: [...out.valuesDecimal] } : {}),
-          errorBound: out.errorBound,
-          precision: label === 'oracle' ? 10 ** -ctx.oracleDigits : precision,
-          seconds,
-          stats: { ...out.stats },
-          ...(out.scheduler ? { scheduler: { choices: plainChoices(out.scheduler.choices) } } : {}),
-        };
+        return solvedResult(label, out, label === 'oracle' ? 10 ** -ctx.oracleDigits : precision, seconds);
       }
       const retry = label !== 'oracle' && label !== 'uniformization' && precision * 10 <= 1e-2 && /work|steps|intervals|cap/i.test(out.reason);
       if (!retry) return { label, status: 'refused', reason: out.reason, seconds };
