@@ -97,3 +97,42 @@ function toObject(
     states,
   };
 }
+
+/**
+ * Random models whose optimal decisions switch in time: a chain of "race" gadgets. In gadget i the
+ * owner chooses between a direct race (rate r to the next gadget against rate q to a trap) and a
+ * slow sure detour (rate d to a waypoint, then rate d on): near the deadline the race is better, with
+ * time to spare the detour (for max; the reverse for min), so the optimal scheduler switches. Random
+ * owners, rates, a random goal mode and optional extra edges keep the structure varied.
+ */
+export function arbSwitchingModelObject(opts: { maxGadgets?: number; decades?: number } = {}): fc.Arbitrary<ModelObject> {
+  const decades = opts.decades ?? 2;
+  const unit = fc.double({ min: 0, max: 1, noNaN: true });
+  const rate = unit.map((e) => rateFrom(e, decades));
+  // The detour is at least as fast as the race and the trap comparable to it, so that the detour wins
+  // with time to spare; the time bound is a few detour times of the slowest gadget.
+  const gadget = fc
+    .record({ race: rate, trapRatio: unit, detourRatio: unit, min: fc.boolean(), back: fc.option(rate, { nil: undefined }) })
+    .map((g) => ({ ...g, trap: Number((g.race * (0.5 + 1.5 * g.trapRatio)).toPrecision(4)), detour: Number((g.race * (1 + 3 * g.detourRatio)).toPrecision(4)) }));
+  return fc
+    .record({
+      gadgets: fc.array(gadget, { minLength: 1, maxLength: opts.maxGadgets ?? 3 }),
+      time: fc.double({ min: 0.5, max: 3, noNaN: true }),
+      mode: fc.constantFrom<GoalMode>('within', 'at'),
+    })
+    .map(({ gadgets, time, mode }) => {
+      const states: NonNullable<ModelObject['states']> = {};
+      const n = gadgets.length;
+      gadgets.forEach((g, i) => {
+        const next = i + 1 < n ? `g${i + 1}` : 'goal';
+        const race: Record<string, number> = { [next]: g.race, trap: g.trap };
+        if (g.back !== undefined && i > 0) race[`g${i - 1}`] = g.back;
+        states[`g${i}`] = { owner: g.min ? 'min' : 'max', actions: { race, detour: { [`w${i}`]: g.detour } } };
+        states[`w${i}`] = { actions: { walk: { [next]: g.detour } } };
+      });
+      states.goal = mode === 'at' ? { actions: { leak: { trap: 0.1 } } } : {};
+      states.trap = {};
+      const slowest = Math.min(...gadgets.map((g) => g.detour));
+      return { format: 'crossbound/1', name: 'switching', time_bound: Number(((time * 2 * n) / slowest).toPrecision(4)), goal: ['goal'], goal_mode: mode, initial: 'g0', states };
+    });
+}

@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { buildModel, type ModelObject } from '../../corpus/format/build.js';
 import { exportJson } from '../../corpus/format/export.js';
-import { arbModelObject } from '../../corpus/generators/random.js';
+import { arbModelObject, arbSwitchingModelObject } from '../../corpus/generators/random.js';
 import { checkModel } from '../check/checkModel.js';
 import type { CheckResult, ModelReport } from '../check/types.js';
 
@@ -64,7 +64,12 @@ function judgeModel(obj: ModelObject, opts: FuzzOptions): Promise<ModelReport> {
 
 export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const t0 = performance.now();
-  const arb = arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' });
+  // Mostly unstructured random models; one in four a chain of race gadgets whose optimal decisions
+  // switch in time (random models rarely make decisions switch).
+  const arb = fc.oneof(
+    { weight: 3, arbitrary: arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' }) },
+    { weight: 1, arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((opts.maxStates - 2) / 2)) }) },
+  );
   let done = 0;
   const prop = fc.asyncProperty(arb, async (obj) => {
     // fast-check calls the property once per run and once per shrink step.
