@@ -7,7 +7,7 @@ import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, withinTolerance } from '../compare/index.js';
 import { runExternalMethod } from './external.js';
-import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, INTERNAL_METHODS, runInternal } from './methods.js';
+import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, type Solve } from './properties.js';
 import type { CheckResult, MethodResult, ModelReport } from './types.js';
 
@@ -52,7 +52,7 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     precision: opts.precision,
     oracleDigits: opts.oracleDigits ?? 20,
     eulerMaxWork: CHECK_EULER_MAX_WORK,
-    kstepMaxIntervals: Math.max(CHECK_KSTEP_MAX_INTERVALS, Math.floor(CHECK_EULER_MAX_WORK / (compiled.nStates + compiled.nTransitions))),
+    kstepMaxIntervals: Math.max(CHECK_KSTEP_MAX_INTERVALS, Math.floor(CHECK_KSTEP_WORK / (compiled.nStates + compiled.nTransitions))),
   };
   const methods: MethodResult[] = [];
   const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;

@@ -37,7 +37,9 @@ export interface MethodContext {
 }
 
 export const CHECK_EULER_MAX_WORK = 3e7;
+/** At least this many intervals, and up to CHECK_KSTEP_WORK / (states + transitions). */
 export const CHECK_KSTEP_MAX_INTERVALS = 2e4;
+export const CHECK_KSTEP_WORK = 1e7;
 
 /** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
 export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle' | 'variant'; k?: number } {
