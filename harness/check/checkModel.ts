@@ -8,7 +8,7 @@ import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, withinTolerance } from '../compare/index.js';
 import { runExternalMethod } from './external.js';
 import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
-import { audit, dominance, metamorphic, monotoneInT, type Solve } from './properties.js';
+import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
 import type { CheckResult, MethodResult, ModelReport } from './types.js';
 
 /** The own method that also runs the metamorphic relations (fast and order 3). */
@@ -73,6 +73,8 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     if (mono) checks.push(withRepro(mono, file, labels, opts));
     const dom = dominance(model, m);
     if (dom) checks.push(withRepro(dom, file, labels, opts));
+    const strat = strategyValue(model, m);
+    if (strat) checks.push(withRepro(strat, file, labels, opts));
     if (m.label === METAMORPHIC_METHOD || m.label.startsWith('solver:')) {
       for (const c of await metamorphic(model, m, solve)) checks.push(withRepro(c, file, labels, opts));
     }

@@ -75,25 +75,31 @@ export async function metamorphic(model: Model, base: MethodResult, solve: Solve
 /** Evaluating a scheduler costs a uniformization per segment; beyond this many it is not evaluated. */
 export const MAX_DOMINANCE_SEGMENTS = 20_000;
 
-export function dominance(model: Model, m: MethodResult): CheckResult | undefined {
-  const kind = modelKind(model);
-  if (kind !== 'CTMDP' || m.status !== 'solved' || !m.scheduler) return undefined;
-  const name = `dominance ${m.label}`;
-  const isMax = model.states.some((s) => s.actions.length >= 2 && s.owner === 'max');
-  for (const [state, segs] of Object.entries(m.scheduler.choices)) {
+/** The returned scheduler's own value by uniformization at 1e-10, or a check result saying why not. */
+function schedulerValue(model: Model, m: MethodResult, name: string): { values: Float64Array; bound: number; names: readonly string[] } | CheckResult {
+  for (const [state, segs] of Object.entries(m.scheduler!.choices)) {
     const st = model.states.find((s) => s.name === state);
     const bad = !st || !Array.isArray(segs) || segs.some((g) => !st.actions.some((a) => a.name === g.action) || !Number.isFinite(g.from));
     if (bad) return { name, passed: false, detail: `the returned scheduler names an unknown state or action (${state})` };
   }
-  const segments = Object.values(m.scheduler.choices).reduce((n, segs) => n + segs.length, 0);
+  const segments = Object.values(m.scheduler!.choices).reduce((n, segs) => n + segs.length, 0);
   if (segments > MAX_DOMINANCE_SEGMENTS) return { name, passed: true, detail: `scheduler not evaluated: ${segments} segments (more than ${MAX_DOMINANCE_SEGMENTS})` };
   const compiled = compile(model);
   const w = solveUniformization(compiled, { precision: 1e-10, scheduler: m.scheduler as Scheduler });
   if (w.kind !== 'solved') return { name, passed: true, detail: `scheduler not evaluated: ${w.reason}` };
-  const allowed = m.errorBound! + w.errorBound + 1e-15;
+  return { values: w.values, bound: w.errorBound, names: compiled.stateNames };
+}
+
+export function dominance(model: Model, m: MethodResult): CheckResult | undefined {
+  if (modelKind(model) !== 'CTMDP' || m.status !== 'solved' || !m.scheduler) return undefined;
+  const name = `dominance ${m.label}`;
+  const isMax = model.states.some((s) => s.actions.length >= 2 && s.owner === 'max');
+  const w = schedulerValue(model, m, name);
+  if (!('values' in w)) return w;
+  const allowed = m.errorBound! + w.bound + 1e-15;
   let worst = 0;
   let excess = -Infinity;
-  for (let s = 0; s < compiled.nStates; s++) {
+  for (let s = 0; s < w.values.length; s++) {
     const e = isMax ? w.values[s]! - m.values![s]! : m.values![s]! - w.values[s]!;
     if (e > excess) [excess, worst] = [e, s];
   }
@@ -104,8 +110,22 @@ export function dominance(model: Model, m: MethodResult): CheckResult | undefine
     ratio: Math.max(0, excess) / allowed,
     detail: passed
       ? `the returned scheduler does not beat the claimed optimum (${isMax ? 'max' : 'min'})`
-      : `state ${compiled.stateNames[worst]}: the returned scheduler achieves ${w.values[worst]}, beyond the claimed optimum ${m.values![worst]} by ${excess.toExponential(3)} > ${allowed.toExponential(3)}`,
+      : `state ${w.names[worst]}: the returned scheduler achieves ${w.values[worst]}, beyond the claimed optimum ${m.values![worst]} by ${excess.toExponential(3)} > ${allowed.toExponential(3)}`,
   };
+}
+
+/**
+ * Own k-step runs only: the scheduler they return (both players' strategies) is evaluated and must
+ * achieve the reported value within both bounds — its switches sit at the level-k breakpoints, so the
+ * strategy is as good as the values (other solvers' schedulers need not be; dominance covers them).
+ */
+export function strategyValue(model: Model, m: MethodResult): CheckResult | undefined {
+  if (modelKind(model) === 'CTMC' || m.status !== 'solved' || !m.scheduler || !m.label.startsWith('kstep')) return undefined;
+  const name = `strategy-value ${m.label}`;
+  const w = schedulerValue(model, m, name);
+  if (!('values' in w)) return w;
+  const c = compareAnswers({ label: m.label, values: m.values!, bound: m.errorBound! }, { label: 'its scheduler', values: w.values, bound: w.bound });
+  return { name, passed: c.agree, ratio: c.ratio, detail: describeDiff(w.names, c, 'the returned scheduler achieves the reported value') };
 }
 
 export interface AuditRow {

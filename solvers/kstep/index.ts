@@ -16,8 +16,9 @@
  * than `maxIntervals` intervals (default 10^7) or more than ~4·10^10 transition-coefficient updates,
  * a rounding allowance above ~0.6 of the precision, or a piece count that halving the interval
  * ten times does not bring under the cap.
- * Scheduler: per interval and owned state, the action chosen at level k for the longest part of the
- * interval, in elapsed time (interval [t0, t0+ε] of time left is [T−t0−ε, T−t0] elapsed).
+ * Scheduler: per interval and owned state, the action chosen at level k; where that choice changes
+ * inside the interval (the level-k envelope has breakpoints), the switch is placed at the breakpoint,
+ * not at the interval's end. In elapsed time: time left t0 + τ is elapsed T − t0 − τ.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome } from '../../corpus/format/result.js';
@@ -104,6 +105,7 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
   const span = (t0: number, t1: number, depth: number): string | undefined => {
     const len = t1 - t0;
     w.coefNorm = 1;
+    w.pieceDec.clear();
     if (runInterval(w, x, len, next)) {
       trunc += localBound(lambda, len, k);
       round += roundingBound(lambda, len, k, rowLen, Math.max(w.coefNorm, Math.exp(2 * lambda * len)));
@@ -154,16 +156,25 @@ class ChoiceRecorder {
   }
   record(w: KstepWork, t0: number): void {
     for (const s of this.owned) {
-      const d = w.dec[s]!;
-      if (d < 0) continue;
-      const c = this.cur[s]!;
-      if (c >= 0 && c !== d) {
-        let list = this.segs.get(s);
-        if (!list) this.segs.set(s, (list = []));
-        list.push({ from: this.T - t0, action: this.m.actionNames[c]! });
+      const inside = w.pieceDec.get(s);
+      if (inside) {
+        // The decision changes inside the interval: switch at the envelope's breakpoints.
+        for (let i = 0; i < inside.tau.length; i++) this.step(s, inside.action[i]!, t0 + inside.tau[i]!);
+      } else {
+        this.step(s, w.dec[s]!, t0);
       }
-      this.cur[s] = d;
     }
+  }
+  /** From time left `t` on, state s takes global action d (the earlier action holds below t). */
+  private step(s: number, d: number, t: number): void {
+    if (d < 0) return;
+    const c = this.cur[s]!;
+    if (c >= 0 && c !== d) {
+      let list = this.segs.get(s);
+      if (!list) this.segs.set(s, (list = []));
+      list.push({ from: this.T - t, action: this.m.actionNames[c]! });
+    }
+    this.cur[s] = d;
   }
   finish(): Record<string, Segment[]> {
     const out = constantChoices(this.m);

@@ -43,6 +43,11 @@ export interface KstepWork {
   readonly diff: Float64Array;
   /** Decision (global action index) at level k in the last interval, per state; −1 if none. */
   readonly dec: Int32Array;
+  /**
+   * States whose level-k decision changes inside the last interval: the piece starts τ (time left
+   * from the interval's start) and the decision on each piece. Cleared by the caller per interval.
+   */
+  readonly pieceDec: Map<number, { tau: number[]; action: number[] }>;
   readonly pieceCap: number;
   maxPieces: number;
   /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
@@ -58,7 +63,7 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
   return {
     m, k, active, C: Array.from({ length: k }, () => new Float64Array(S)), R: new Float64Array(m.nActions * k),
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
-    pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1),
+    pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
   };
 }
@@ -134,6 +139,18 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
       let best = 0;
       for (let a = 1; a < nA; a++) if (lenOf[a]! > lenOf[best]!) best = a;
       w.dec[s] = a0 + best;
+      let changes = false;
+      for (let i = 1; i < n; i++) if (env.choice![i] !== env.choice![i - 1]) changes = true;
+      if (changes) {
+        const tau: number[] = [];
+        const action: number[] = [];
+        for (let i = 0; i < n; i++) {
+          if (i > 0 && env.choice![i] === env.choice![i - 1]) continue;
+          tau.push(f.breaks[i]!);
+          action.push(a0 + env.choice![i]!);
+        }
+        w.pieceDec.set(s, { tau, action });
+      }
     }
     return evaluate(f, len, j);
   }

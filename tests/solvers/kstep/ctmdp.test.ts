@@ -52,20 +52,19 @@ describe('kstep on CTMDPs and CTMGs', () => {
     }
   });
 
-  it('hand-derived CTMDP: the scheduler switches from B to A near elapsed T − t*, and its value is near-optimal', () => {
+  it('hand-derived CTMDP: the scheduler switches from B to A at elapsed T − t* (to far better than ε), and achieves the value within the bounds', () => {
     const T = 0.8;
     const o = solved(solveKstep(handModel(T), { precision: 1e-7, k: 3 }));
     const segs = o.scheduler!.choices.s!;
     expect(segs.map((g) => g.action)).toEqual(['B', 'A']);
-    expect(Math.abs(segs[1]!.from - (T - tStar))).toBeLessThanOrEqual(o.stats.epsilon!);
+    // The switch sits at the level-k envelope's breakpoint, not at an interval end.
+    expect(Math.abs(segs[1]!.from - (T - tStar))).toBeLessThanOrEqual(o.stats.epsilon! / 100);
     const m = handModel(T);
     const { values, estimate } = schedulerValues(m, o.scheduler!, 1e-3);
-    // Optimal ≥ any scheduler: the scheduler's value never exceeds kstep + bounds.
+    // Optimal ≥ any scheduler: the scheduler's value never exceeds kstep + bounds ...
     expect(values[0]!).toBeLessThanOrEqual(o.values[0]! + o.errorBound + estimate + 1e-12);
-    // Positional per interval: on the one interval holding the switch the decision is wrong for at
-    // most ε/2, where the advantage |d| ≤ |d′|·δ with |d′| ≤ 4λ²; the loss is ≤ λ²ε²/2 (derived here).
-    const eps = o.stats.epsilon!;
-    expect(values[0]!).toBeGreaterThanOrEqual(o.values[0]! - o.errorBound - estimate - (16 * eps * eps) / 2);
+    // ... and this one attains it within the bounds.
+    expect(values[0]!).toBeGreaterThanOrEqual(o.values[0]! - o.errorBound - estimate);
   });
 
   it('random CTMDPs and CTMGs: |kstep − fine kstep (1e-9)| ≤ both bounds; scheduler values never beat the optimum', () => {
