@@ -9,6 +9,7 @@
  * returns the rounded sum and its exact error, so an update loses only the rounding of the small
  * increment, not one unit of the value per step. Ties between actions go to the first action.
  * Only the states in `active` are written; frozen states hold the same value in both buffers.
+ * Returns max_s |inc_s − lo_s|, the computed h·‖B(hi)‖ (for the a-posteriori bound of index.ts).
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
 
@@ -25,10 +26,11 @@ export function eulerStep(
   hR: Float64Array,
   b: StepBuffers,
   choice: Int32Array | undefined,
-): void {
+): number {
   const { actionStart, rowStart, col, owner } = m;
   const { hi, lo, hiNext, loNext } = b;
   const n = active.length;
+  let maxInc = 0;
   for (let i = 0; i < n; i++) {
     const s = active[i]!;
     const vs = hi[s]!;
@@ -52,6 +54,8 @@ export function eulerStep(
         }
       }
     }
+    const absBest = best < 0 ? -best : best;
+    if (absBest > maxInc) maxInc = absBest;
     const inc = best + lo[s]!;
     const t = vs + inc;
     const bb = t - vs;
@@ -63,4 +67,5 @@ export function eulerStep(
   b.lo = loNext;
   b.hiNext = hi;
   b.loNext = lo;
+  return maxInc;
 }
