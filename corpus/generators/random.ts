@@ -40,25 +40,32 @@ export function arbModelObject(opts: RandomModelOptions = {}): fc.Arbitrary<Mode
   const maxSucc = opts.maxSuccessors ?? 3;
   const decades = opts.decades ?? 4;
   const maxTime = opts.maxTime ?? 5;
-  return fc.integer({ min: 1, max: maxStates }).chain((n) => {
-    const action = fc.record({
-      succ: fc.array(fc.record({ to: fc.integer({ min: 0, max: n - 1 }), exp: fc.double({ min: 0, max: 1, noNaN: true }) }), {
-        minLength: 0,
-        maxLength: maxSucc,
-      }),
-    });
-    const state = fc.record({
-      actions: fc.array(action, { minLength: 0, maxLength: maxActions }),
-      ownerMin: fc.boolean(),
-      goal: fc.boolean(),
-    });
-    return fc.record({
-      states: fc.array(state, { minLength: n, maxLength: n }),
+  // No chain on the number of states (fast-check shrinks a chain's outer value poorly): the states
+  // are an array, and successor indices are drawn below maxStates and taken modulo its length, so
+  // shrinking can drop states one by one.
+  const action = fc.record({
+    succ: fc.array(fc.record({ to: fc.integer({ min: 0, max: maxStates - 1 }), exp: fc.double({ min: 0, max: 1, noNaN: true }) }), {
+      minLength: 0,
+      maxLength: maxSucc,
+    }),
+  });
+  const state = fc.record({
+    actions: fc.array(action, { minLength: 0, maxLength: maxActions }),
+    ownerMin: fc.boolean(),
+    goal: fc.boolean(),
+  });
+  return fc
+    .record({
+      states: fc.array(state, { minLength: 1, maxLength: maxStates }),
       time: fc.double({ min: 0.05, max: maxTime, noNaN: true }),
       mode: opts.goalMode && opts.goalMode !== 'any' ? fc.constant(opts.goalMode) : fc.constantFrom<GoalMode>('within', 'at'),
       globalMin: fc.boolean(),
-    }).map(({ states, time, mode, globalMin }) => toObject(states, time, mode, globalMin, kind, decades, opts.selfLoops ?? true));
-  });
+    })
+    .map(({ states, time, mode, globalMin }) => {
+      const n = states.length;
+      const wrapped = states.map((st) => ({ ...st, actions: st.actions.map((a) => ({ succ: a.succ.map((t) => ({ ...t, to: t.to % n })) })) }));
+      return toObject(wrapped, time, mode, globalMin, kind, decades, opts.selfLoops ?? true);
+    });
 }
 
 function toObject(

@@ -67,6 +67,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   // Mostly unstructured random models; one in four a chain of race gadgets whose optimal decisions
   // switch in time (random models rarely make decisions switch).
   const arb = fc.oneof(
+    { withCrossShrink: true },
     { weight: 3, arbitrary: arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' }) },
     { weight: 1, arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((opts.maxStates - 2) / 2)) }) },
   );

@@ -49,6 +49,8 @@ export interface KstepWork {
    */
   readonly pieceDec: Map<number, { tau: number[]; action: number[] }>;
   readonly pieceCap: number;
+  /** λ · max_s |c_i(s)| for the current level (i = 0: the start values): the scale of rounding in r_{a,i}. */
+  readonly coefScale: Float64Array;
   maxPieces: number;
   /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
    *  a-priori bound e^{2λ·len}, see ./bound.ts). */
@@ -64,9 +66,12 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     m, k, active, C: Array.from({ length: k }, () => new Float64Array(S)), R: new Float64Array(m.nActions * k),
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
-    pieceCap, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
+    pieceCap, coefScale: new Float64Array(k), maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
   };
 }
+
+/** Coefficient differences below this multiple of their size (and of λ·max|c_i|) are rounding. */
+const TIE_TOLERANCE = 1e-12;
 
 /**
  * Index (within the state) of the action that is best on all of [0, len], or −1 when another one
@@ -77,12 +82,17 @@ function dominant(w: KstepWork, a0: number, nA: number, j: number, len: number, 
   let best = 0;
   for (let b = 1; b < nA; b++) {
     for (let i = 0; i < j; i++) {
-      const d = sense * (R[(a0 + b) * k + i]! - R[(a0 + best) * k + i]!);
-      if (d > 0) {
+      const rb = R[(a0 + b) * k + i]!;
+      const rbest = R[(a0 + best) * k + i]!;
+      const d = sense * (rb - rbest);
+      // Differences at the level of rounding are ties, decided by the next order: otherwise a tie
+      // broken by rounding at τ = 0 can hide an action that is better on all of (0, len].
+      const tol = TIE_TOLERANCE * (Math.abs(rb) + Math.abs(rbest) + w.coefScale[i]!);
+      if (d > tol) {
         best = b;
         break;
       }
-      if (d < 0) break;
+      if (d < -tol) break;
     }
   }
   for (let b = 0; b < nA; b++) {
@@ -222,6 +232,15 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     dCur.fill(0);
     w.pwCur = new Map();
     nPend.n = 0;
+    for (let i = 0; i < j; i++) {
+      const c = i === 0 ? x : C[i]!;
+      let mx = 0;
+      for (let s = 0; s < S; s++) {
+        const v = c[s]! < 0 ? -c[s]! : c[s]!;
+        if (v > mx) mx = v;
+      }
+      w.coefScale[i] = m.lambda * mx;
+    }
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
         if (last) out[s] = x[s]!;
