@@ -8,7 +8,6 @@ import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
