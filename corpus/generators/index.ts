@@ -9,6 +9,7 @@ import { gridPatrol } from './gridPatrol.js';
 import { GeneratorError } from './params.js';
 import type { Spec } from './params.js';
 import { queueControl } from './queueControl.js';
+import { randomGame } from './randomGame.js';
 import { randomSparse } from './randomSparse.js';
 import { redundantSystem } from './redundantSystem.js';
 
@@ -21,6 +22,7 @@ export const FAMILIES: Readonly<Record<string, (spec: Spec) => ModelObject>> = {
   'grid-patrol': gridPatrol,
   'random-sparse': randomSparse,
   'queue-control': queueControl,
+  'random-game': randomGame,
 };
 
 /** Resolve a `generate` mapping; throws `GeneratorError` naming the bad parameter. */

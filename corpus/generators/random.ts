@@ -31,6 +31,13 @@ interface RawState {
   goal: boolean;
 }
 
+/**
+ * Uniform on [0, 1] in steps of 1e-6. Not fc.double: it is uniform over the representable doubles,
+ * so almost all its draws in [0, 1] are tiny and every rate would sit at the bottom of its range.
+ * No bias towards the ends either; shrinking still goes towards 0.
+ */
+const UNIT = fc.noBias(fc.integer({ min: 0, max: 1_000_000 })).map((i) => i / 1_000_000);
+
 const rateFrom = (exp: number, decades: number): number => Number((10 ** ((exp - 0.5) * decades)).toPrecision(6));
 
 export function arbModelObject(opts: RandomModelOptions = {}): fc.Arbitrary<ModelObject> {
@@ -44,7 +51,7 @@ export function arbModelObject(opts: RandomModelOptions = {}): fc.Arbitrary<Mode
   // are an array, and successor indices are drawn below maxStates and taken modulo its length, so
   // shrinking can drop states one by one.
   const action = fc.record({
-    succ: fc.array(fc.record({ to: fc.integer({ min: 0, max: maxStates - 1 }), exp: fc.double({ min: 0, max: 1, noNaN: true }) }), {
+    succ: fc.array(fc.record({ to: fc.integer({ min: 0, max: maxStates - 1 }), exp: UNIT }), {
       minLength: 0,
       maxLength: maxSucc,
     }),
@@ -57,7 +64,7 @@ export function arbModelObject(opts: RandomModelOptions = {}): fc.Arbitrary<Mode
   return fc
     .record({
       states: fc.array(state, { minLength: 1, maxLength: maxStates }),
-      time: fc.double({ min: 0.05, max: maxTime, noNaN: true }),
+      time: fc.noBias(fc.double({ min: 0.05, max: maxTime, noNaN: true })),
       mode: opts.goalMode && opts.goalMode !== 'any' ? fc.constant(opts.goalMode) : fc.constantFrom<GoalMode>('within', 'at'),
       globalMin: fc.boolean(),
     })
@@ -115,7 +122,7 @@ function toObject(
 export function arbSwitchingModelObject(opts: { maxGadgets?: number; decades?: number } = {}): fc.Arbitrary<ModelObject> {
   // Rates within a factor of about 4 of each other keep λT moderate (below ~30 per gadget).
   const decades = opts.decades ?? 0.6;
-  const unit = fc.double({ min: 0, max: 1, noNaN: true });
+  const unit = UNIT;
   const rate = unit.map((e) => rateFrom(e, decades));
   // The detour is at least as fast as the race and the trap comparable to it, so that the detour wins
   // with time to spare; the time bound is a few detour times of the slowest gadget.
@@ -125,7 +132,7 @@ export function arbSwitchingModelObject(opts: { maxGadgets?: number; decades?: n
   return fc
     .record({
       gadgets: fc.array(gadget, { minLength: 1, maxLength: opts.maxGadgets ?? 3 }),
-      time: fc.double({ min: 0.5, max: 2, noNaN: true }),
+      time: fc.noBias(fc.double({ min: 0.5, max: 2, noNaN: true })),
       mode: fc.constantFrom<GoalMode>('within', 'at'),
     })
     .map(({ gadgets, time, mode }) => {

@@ -15,8 +15,9 @@ const SMALL: Record<string, Record<string, unknown>> = {
   'grid-patrol': { side: 3, walls: 1 },
   'random-sparse': { states: 30, branching: 3, player: 'mixed' },
   'queue-control': { capacity: 4 },
+  'random-game': { states: 6 },
 };
-const RANDOM = ['redundant-system', 'grid-patrol', 'random-sparse'];
+const RANDOM = ['redundant-system', 'grid-patrol', 'random-sparse', 'random-game'];
 
 describe.each(Object.keys(FAMILIES))('%s', (family) => {
   const spec = (seed: number) => ({ family, seed, ...SMALL[family] });
