@@ -37,15 +37,14 @@ describe('broken external solvers are caught on the corpus', () => {
   for (const s of brokenSolvers) {
     it(`${s.file} (${s.bug}) is flagged with verdict ${s.expectedVerdict}`, () => {
       const timeout = s.expectedVerdict === 'timeout' ? ['--timeout', '2'] : [];
-      // The NaN shows on states without exits, which the corpus has only in models with choices; the
-      // fixture's Euler path reaches those only at a coarse precision.
-      const precision = s.expectedVerdict === 'bad-value' ? '1e-3' : '1e-6';
-      const { code, report } = checkCorpus(solverTemplate(s.file, s.args ?? []), precision, timeout);
+      // 1e-3: the fixtures' Euler path (models with choices) refuses finer precisions on this corpus,
+      // and a refusal is a fault of its own; at 1e-3 the correct fixture passes everywhere (above).
+      const { code, report } = checkCorpus(solverTemplate(s.file, s.args ?? []), '1e-3', timeout);
       expect(code).toBe(1);
       const failed = failedOf(report);
       const want =
         s.expectedVerdict === 'disagreement' || s.expectedVerdict === 'broken-bound'
-          ? (c: { name: string }) => /^(agree|expect|monotone|metamorphic|dominance|range)/.test(c.name)
+          ? (c: { name: string; detail: string }) => /^(agree|expect|monotone|metamorphic|dominance|range)/.test(c.name) && !/not solved/.test(c.detail)
           : (c: { name: string; detail: string }) => c.name.startsWith('fault') && c.detail.startsWith(`${s.expectedVerdict}:`);
       expect(failed.filter(want).length, JSON.stringify(failed.slice(0, 3))).toBeGreaterThan(0);
       if (s.expectedVerdict === 'broken-bound') {
