@@ -114,7 +114,7 @@ export function formatBenchTable(rows: readonly BenchRow[]): string {
     r.seconds.toFixed(4),
     exp(r.errorBound),
     exp(r.actualError),
-    r.actualError !== undefined && r.errorBound ? (r.actualError / r.errorBound).toFixed(3) : '–',
+    r.actualError !== undefined && r.errorBound ? (r.actualError / r.errorBound).toExponential(2) : '–',
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]) => cells.map((c, i) => (i < 3 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join('  ').trimEnd();
