@@ -6,6 +6,7 @@
  * calls `buildModel`. Tests and generators may call it directly on objects they made; it still
  * throws a plain Error on a broken reference, so that a bad object never becomes a bad model.
  */
+import { Decimal } from 'decimal.js';
 import type { ActionDecl, Expectation, GoalMode, Model, Owner, StateDecl, Transition } from './types.js';
 
 export type RateInput = number | string;
@@ -72,8 +73,9 @@ export function buildModel(obj: ModelObject, fallbackName = 'model'): Model {
       if (!m) d.actions.set(a, (m = new Map()));
       const prev = m.get(ti);
       const add = rateOf(r);
-      // Repeated rows for the same (state, action, successor) add up.
-      m.set(ti, prev ? { rate: prev.rate + add.rate, rateText: `${prev.rateText}+${add.rateText}` } : add);
+      // Repeated rows for the same (state, action, successor) add up; the text is the exact decimal sum.
+      const sum = prev ? new Decimal(prev.rateText).plus(add.rateText).toString() : undefined;
+      m.set(ti, sum !== undefined ? { rate: Number(sum), rateText: sum } : add);
     }
     for (const [s, o] of Object.entries(obj.owners ?? {})) {
       const si = index.get(s);

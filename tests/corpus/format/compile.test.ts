@@ -24,3 +24,10 @@ describe('compile', () => {
     expect([...c.actionStart]).toEqual([0, 2, 2, 3]);
   });
 });
+
+describe('buildModel, flat form', () => {
+  it('adds repeated rows exactly: the rate text is the decimal sum and the rate its nearest double', () => {
+    const m = buildModel({ time_bound: 1, goal: ['b'], transitions: [['a', 'x', 'b', '0.1'], ['a', 'x', 'b', '0.2']] });
+    expect(m.states[0]!.actions[0]!.successors).toEqual([{ target: 1, rate: 0.3, rateText: '0.3' }]);
+  });
+});
