@@ -35,6 +35,8 @@ export interface KstepOptions {
   /** Use exactly this many equal intervals instead of choosing ε from the precision (for studies
    *  of convergence); the bound is still reported, and the result refused if it exceeds precision. */
   readonly intervals?: number;
+  /** Planted bug for `selftest` (variant:loose-tie) only: a tie tolerance the bound does not pay for. */
+  readonly looseTie?: number;
 }
 
 const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'kstep', reason });
@@ -94,7 +96,7 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`);
 
   // --- the intervals -------------------------------------------------------------------------
-  const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32);
+  const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
   let x = Float64Array.from(x0);
   let next = new Float64Array(S);
   let trunc = 0;

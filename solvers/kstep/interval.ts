@@ -49,6 +49,11 @@ export interface KstepWork {
    */
   readonly pieceDec: Map<number, { tau: number[]; action: number[] }>;
   readonly pieceCap: number;
+  /**
+   * Planted-bug hook for `selftest` only (variant:loose-tie): when > 0, coefficient differences below
+   * looseTie · (|r_b| + |r_best| + λ·max|c_i|) are called ties and nothing in the bound pays for it.
+   */
+  readonly looseTie: number;
   /** λ · max_s |c_i(s)| for the current level (i = 0: the start values): the scale of rounding in r_{a,i}. */
   readonly coefScale: Float64Array;
   maxPieces: number;
@@ -60,13 +65,13 @@ export interface KstepWork {
   dirtyStates: number;
 }
 
-export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Float64Array, pieceCap: number): KstepWork {
+export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Float64Array, pieceCap: number, looseTie = 0): KstepWork {
   const S = m.nStates;
   return {
     m, k, active, C: Array.from({ length: k }, () => new Float64Array(S)), R: new Float64Array(m.nActions * k),
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
-    pieceCap, coefScale: new Float64Array(k), maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
+    pieceCap, looseTie, coefScale: new Float64Array(k), maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
   };
 }
 
