@@ -61,8 +61,10 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
           }
         },
       });
+      const d = summary.drawn;
+      const families = `fuzz: families drawn: ${d.random} random, ${d.switching} switching, ${d.adversarial} adversarial (near-ties)`;
       if (!summary.failure) {
-        process.stdout.write(`fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, in ${summary.seconds.toFixed(1)} s\n`);
+        process.stdout.write(`fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, in ${summary.seconds.toFixed(1)} s\n${families}\n`);
         return setExit(0);
       }
       const f = summary.failure;
@@ -71,6 +73,7 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
         ...f.failed.map((c, i) => `  ${i + 1}. ${c.name}: ${c.detail}`),
         f.savedTo ? `  saved: ${f.savedTo}` : '  (not saved)',
         `  reproduce: ${f.reproduce}`,
+        families,
       ];
       process.stdout.write(`${lines.join('\n')}\n`);
       setExit(1);

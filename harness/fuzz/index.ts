@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { buildModel, type ModelObject } from '../../corpus/format/build.js';
 import { exportJson } from '../../corpus/format/export.js';
+import { arbAdversarialModelObject } from '../../corpus/generators/adversarial.js';
 import { arbModelObject, arbSwitchingModelObject } from '../../corpus/generators/random.js';
 import { checkModel } from '../check/checkModel.js';
 import type { CheckResult, ModelReport } from '../check/types.js';
@@ -42,6 +43,8 @@ export interface FuzzFailure {
 
 export interface FuzzSummary {
   readonly runs: number;
+  /** Models drawn per family in the runs (not counting shrink steps). */
+  readonly drawn: Readonly<Record<FuzzFamily, number>>;
   readonly seed: number;
   readonly seconds: number;
   readonly failure?: FuzzFailure;
@@ -62,26 +65,43 @@ function judgeModel(obj: ModelObject, opts: FuzzOptions): Promise<ModelReport> {
   });
 }
 
+export type FuzzFamily = 'random' | 'switching' | 'adversarial';
+
+/**
+ * The families of a fuzz run and their weights (out of 16): 9 unstructured random models; 3 chains
+ * of race gadgets whose optimal decisions switch in time (random models rarely make decisions
+ * switch); 4 — one model in four — adversarial near-ties (corpus/generators/adversarial.ts: ties
+ * at orders 0 … 3 with tiny relative gaps, frozen goals with huge rates, fast unrelated states,
+ * models scaled by 10^±150, rates in every decimal form, both players, both goal modes).
+ */
+export function fuzzArbitrary(maxStates: number): fc.Arbitrary<{ family: FuzzFamily; model: ModelObject }> {
+  const tag = (family: FuzzFamily) => (model: ModelObject) => ({ family, model });
+  return fc.oneof(
+    { withCrossShrink: true },
+    { weight: 9, arbitrary: arbModelObject({ maxStates, decades: 4, maxTime: 2, kind: 'any' }).map(tag('random')) },
+    { weight: 3, arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((maxStates - 2) / 2)) }).map(tag('switching')) },
+    { weight: 4, arbitrary: arbAdversarialModelObject({ maxStates }).map(tag('adversarial')) },
+  );
+}
+
 export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const t0 = performance.now();
-  // Mostly unstructured random models; one in four a chain of race gadgets whose optimal decisions
-  // switch in time (random models rarely make decisions switch).
-  const arb = fc.oneof(
-    { withCrossShrink: true },
-    { weight: 3, arbitrary: arbModelObject({ maxStates: opts.maxStates, decades: 4, maxTime: 2, kind: 'any' }) },
-    { weight: 1, arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((opts.maxStates - 2) / 2)) }) },
-  );
+  const arb = fuzzArbitrary(opts.maxStates);
   let done = 0;
-  const prop = fc.asyncProperty(arb, async (obj) => {
+  const drawn: Record<FuzzFamily, number> = { random: 0, switching: 0, adversarial: 0 };
+  const prop = fc.asyncProperty(arb, async ({ family, model: obj }) => {
     // fast-check calls the property once per run and once per shrink step.
-    if (done < opts.runs) opts.onProgress?.(++done, opts.runs);
+    if (done < opts.runs) {
+      drawn[family]++;
+      opts.onProgress?.(++done, opts.runs);
+    }
     const r = await judgeModel(obj, opts);
     return r.checks.every((c) => c.passed);
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
-  if (!out.failed || !out.counterexample) return { runs: out.numRuns, seed: opts.seed, seconds };
-  const model = out.counterexample[0];
+  if (!out.failed || !out.counterexample) return { runs: out.numRuns, drawn, seed: opts.seed, seconds };
+  const model = out.counterexample[0].model;
   const final = await judgeModel(model, opts);
   const failure: Omit<FuzzFailure, 'reproduce' | 'savedTo'> = {
     seed: opts.seed,
@@ -94,7 +114,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
   const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
   const reproduce = savedTo ? `crossbound check ${savedTo} --precision ${opts.precision.toExponential()} --methods ${methods}` : replay;
-  return { runs: out.numRuns, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
+  return { runs: out.numRuns, drawn, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
 }
 
 function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>, opts: FuzzOptions, replay: string): string {
@@ -107,7 +127,8 @@ function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo
   json.description =
     `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${opts.precision.toExponential()}, methods ${opts.methods.join(',')}). ` +
     `Verdict: ${first.name}: ${first.detail}. Found by: ${replay}. ` +
-    `Kept forever as a regression; every correct solver must pass it.`;
+    `Kept forever as a regression; every correct solver must pass it.` +
+    (f.model.description ? ` The model as drawn: ${f.model.description}` : '');
   writeFileSync(file, `${JSON.stringify(json, null, 2)}\n`);
   return file;
 }
