@@ -10,7 +10,7 @@
  * - a frozen goal: in mode `within`, g has a huge rate (10^6 … 10^12) out of it, which the Bellman
  *   equations never see (goal states are absorbing there) but a solver's global rate scale does;
  *   in mode `at`, g may leak to z at a moderate rate instead;
- * - an unrelated fast state f (rate 10 … 100 to z), which raises λ without touching s;
+ * - an unrelated fast state f (rate 2 … 20 to z, the others 0.1 … 1), which raises λ without touching s;
  * - the whole model scaled by 10^S, S = −150 … 150 (every rate × 10^S, the time bound × 10^−S, so λT
  *   and every value stay the same);
  * - every rate and the time bound written as decimal text in a drawn form ("2.5e+1", "2.5E+1",
@@ -34,14 +34,14 @@ export interface AdversarialDraw {
   readonly mode: GoalMode;
   /** Successors of s beyond the order + 1 that the tie needs (0 … 3). */
   readonly extra: number;
-  /** Mantissas 100 … 999 of the base rates (× 10^-2: rates 1 … 9.99) and of the time bound. */
+  /** Mantissas 100 … 999 of the base rates and the time bound (/ 1000: 0.1 … 0.999; the time bound / 500: 0.2 … 1.998). */
   readonly rates: readonly number[];
   readonly time: number;
   /** Exponent of the huge rate out of the frozen goal (mode within), or undefined. */
   readonly hugeExp?: number | undefined;
   /** Mantissa of g's leak to z in mode `at`, or undefined. */
   readonly leak?: number | undefined;
-  /** Mantissa of the fast state's rate (× 10^-1: 10 … 99.9), or undefined for no fast state. */
+  /** Mantissa of the fast state's rate (/ 50: 2 … 19.98), or undefined for no fast state. */
   readonly fast?: number | undefined;
   readonly scaleExp: number;
   readonly forms: readonly TextForm[];
@@ -90,12 +90,12 @@ export function arbAdversarialModelObject(opts: { maxStates?: number } = {}): fc
 const NAMES = ['g', 'z', 'u1', 'u2'];
 
 export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: ModelObject; features: AdversarialFeatures } {
-  const r = (i: number): Dec => new Dec(d.rates[i % RATE_SLOTS]!).div(100);
+  const r = (i: number): Dec => new Dec(d.rates[i % RATE_SLOTS]!).div(1000);
   // Successors of s: g, z, u1, u2 (the first n of them); states s, g, z, u1 …, and f if room is left.
   const n = Math.min(4, Math.max(d.order + 1, Math.min(4, d.order + 1 + d.extra)), Math.max(1, maxStates - 1));
   const within = d.mode === 'within';
   const rows: { to: number; rate: Dec }[][] = [
-    within ? [] : d.leak !== undefined ? [{ to: 1, rate: new Dec(d.leak).div(100) }] : [],
+    within ? [] : d.leak !== undefined ? [{ to: 1, rate: new Dec(d.leak).div(500) }] : [],
     [],
     [{ to: 0, rate: r(4) }, { to: 1, rate: r(5) }],
     [{ to: 0, rate: r(6) }, { to: 2, rate: r(7) }],
@@ -118,13 +118,13 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
     s: { owner: d.owner, actions: { a1: action(base), a2: action(a2) } },
   };
   const hugeRate = within && d.hugeExp !== undefined ? new Dec(10).pow(d.hugeExp) : undefined;
-  const leakRate = !within && d.leak !== undefined ? new Dec(d.leak).div(100) : undefined;
+  const leakRate = !within && d.leak !== undefined ? new Dec(d.leak).div(500) : undefined;
   states.g = hugeRate ? { actions: { boom: { z: text(hugeRate) } } } : leakRate ? { actions: { leak: { z: text(leakRate) } } } : {};
   states.z = {};
   if (n >= 3) states.u1 = { actions: { go: { g: text(r(4)), z: text(r(5)) } } };
   if (n >= 4) states.u2 = { actions: { go: { g: text(r(6)), u1: text(r(7)) } } };
   const fast = d.fast !== undefined && Object.keys(states).length < maxStates;
-  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).div(10)) } } };
+  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).div(50)) } } };
   const features: AdversarialFeatures = {
     order, gap: gap.toNumber(), a2Better: d.a2Better, owner: d.owner, mode: d.mode,
     frozenHuge: hugeRate !== undefined, fast, scaleExp: d.scaleExp, successors: n,
