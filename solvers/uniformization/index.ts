@@ -137,12 +137,14 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
     v = clampUnit(sum); // true values lie in [0, 1]: clamping never adds error
     if (w.right > widest.right) widest = { left: w.left, right: w.right };
   }
+  const errorBound = p.tails + p.rounding;
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
   return {
     kind: 'solved',
     method: METHOD,
     params: { precision: opts.precision },
     values: v,
-    errorBound: p.tails + p.rounding,
+    errorBound,
     stats: { iterations, left: widest.left, right: widest.right, pieces: pieces.length, seconds: nowSeconds() - t0 },
   };
 }
