@@ -29,7 +29,8 @@
  *     |v̂_s(T) − v_s(T)| ≤ Σ_i λ h_i (h_i‖B(x̂_i)‖ + (d + 4)uλh_i) + rounding.
  * Where the values settle (‖B‖ ≪ λ) this is far below the a-priori bound. The computed iterates stay
  * within δ ≤ precision of [0,1]^S, which scales (ii) by (1 + 2δ); that factor is included.
- * Rounding (u = 2^-53, first order, 1 % margin; see step.ts): per step and state, the increment of
+ * Rounding (u = 2^-53; see step.ts). Sums n·u below are first order; the 1 % margin makes them rigorous,
+ * since γ_n = nu/(1 − nu) ≤ 1.01·nu whenever nu ≤ 1/101 (Higham 2002, Lemma 3.1): per step and state, the increment of
  * ≤ d terms (d = largest row) is off by ≤ (d + 2)u·λh, ignoring lo in differences costs ≤ 2u·λh,
  * and adding lo and the TwoSum cost ≤ u(λh + u). Summed: u[(d + 5)λT + n·u], plus u for the final
  * hi + lo, plus 2uλT for the rounded step lengths (|dv/dt| ≤ λ), plus 3uλT for the inputs (rates and
