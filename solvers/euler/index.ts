@@ -29,7 +29,8 @@
  *     |v̂_s(T) − v_s(T)| ≤ Σ_i λ h_i (h_i‖B(x̂_i)‖ + (d + 4)uλh_i) + rounding.
  * Where the values settle (‖B‖ ≪ λ) this is far below the a-priori bound. The computed iterates stay
  * within δ ≤ precision of [0,1]^S, which scales (ii) by (1 + 2δ); that factor is included.
- * Rounding (u = 2^-53, first order, 1 % margin; see step.ts): per step and state, the increment of
+ * Rounding (u = 2^-53; see step.ts). Sums n·u below are first order; the 1 % margin makes them rigorous,
+ * since γ_n = nu/(1 − nu) ≤ 1.01·nu whenever nu ≤ 1/101 (Higham 2002, Lemma 3.1): per step and state, the increment of
  * ≤ d terms (d = largest row) is off by ≤ (d + 2)u·λh, ignoring lo in differences costs ≤ 2u·λh,
  * and adding lo and the TwoSum cost ≤ u(λh + u). Summed: u[(d + 5)λT + n·u], plus u for the final
  * hi + lo, plus 2uλT for the rounded step lengths (|dv/dt| ≤ λ), plus 3uλT for the inputs (rates and
@@ -89,7 +90,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 5 * lt);
   const trunc = precision - roundingFor(MAX_WORK);
   if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`);
-  const h = Math.min(1 / (lambda * (1 + 2 * (d + 2) * u)), trunc / (lambda * lt * (1 + 2 * precision)));
+  const h = Math.min(1 / (1 + 2 * (d + 2) * u), trunc / (lt * (1 + 2 * precision))) / lambda;
   let nFull = Math.floor(T / h);
   while (nFull > 0 && nFull * h > T) nFull--;
   const hLast = T - nFull * h;
@@ -98,7 +99,10 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   if (steps * work > cap) {
     return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`);
   }
-  const errorBound = lambda * lambda * (nFull * h * h + hLast * hLast) * (1 + 2 * precision) + roundingFor(steps);
+  // In units of 1/λ (λh, λ·hLast), so that nothing over- or underflows for any finite λ and T.
+  const lh = lambda * h;
+  const lhLast = lambda * hLast;
+  const errorBound = (nFull * lh * lh + lhLast * lhLast) * (1 + 2 * precision) + roundingFor(steps);
 
   const init = goalIndicator(m);
   const buf: StepBuffers = { hi: init, lo: new Float64Array(S), hiNext: Float64Array.from(init), loNext: new Float64Array(S) };
@@ -111,23 +115,24 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const choice = log ? new Int32Array(S) : undefined;
 
   // A-posteriori truncation bound (see the doc comment): Σ_i λ h_i (h_i‖B(x̂_i)‖ + rounding of it).
-  const incSlack = (d + 4) * u * lambda;
+  const incSlack = (d + 4) * u;
   let post = 0;
   setStep(h);
   for (let i = 0; i < nFull; i++) {
     const inc = eulerStep(m, active, hR, buf, choice);
-    post += lambda * h * (inc + incSlack * h);
+    post += lh * (inc + incSlack * lh);
     if (log && choice) log.record(choice, i * h);
   }
   if (hLast > 0) {
     setStep(hLast);
     const inc = eulerStep(m, active, hR, buf, choice);
-    post += lambda * hLast * (inc + incSlack * hLast);
+    post += lhLast * (inc + incSlack * lhLast);
     if (log && choice) log.record(choice, nFull * h);
   }
   // The sum above carries ≤ steps·u relative rounding; the margin covers it (steps ≤ 3e9 ≪ 1e7/u).
   const aPosteriori = post * (1 + 1e-6) + roundingFor(steps);
   const reported = Math.min(errorBound, aPosteriori);
+  if (!Number.isFinite(reported)) return refuse(`the error bound is not finite (${reported})`);
   const values = new Float64Array(S);
   for (let s = 0; s < S; s++) values[s] = buf.hi[s]! + buf.lo[s]!;
   clampUnit(values); // true values lie in [0, 1]: clamping never adds error

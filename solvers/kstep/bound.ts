@@ -31,18 +31,37 @@
  * ε and a shorter last one, Σ L(ε_i) ≤ T·(2λ)^{k+1} ε^k / (2·(k+1)!), and ε is chosen to make this
  * ≤ 0.9·precision.
  *
- * Rounding (ρ_i), a first-order model with a factor-2 margin, u = 2^−53, γ_n = nu/(1 − nu) (Higham,
- * Accuracy and Stability of Numerical Algorithms, 2002, Lemma 3.1 and §3.1, §5.1). Let d be the
- * longest row plus one, and C ≥ max_s Σ_i |c_i(s)| ε^i over every level's computed coefficients:
- * for a single polynomial c_0 = x ∈ [0,1] and c_{i+1} = r_i/(i+1) with |r_i| ≤ 2λ·max|c_i|, so
- * |c_i| ≤ (2λ)^i/i! and the sum is ≤ e^{2λε}; for the pieces of piecewise results C is measured
- * during the solve, and the larger of the two is used. At each level the computed iterate differs from the exact image of the
- * previous computed one by at most
- *   δ = 2·[γ_d·2λε·C (dot products of each coefficient) + 2u·C (division, adding x)
- *          + γ_{2k}·2λε·C (the choice between actions from rounded values, integrated over ε)],
- * and these perturbations propagate through (i) with total weight Σ_m (2λε)^m/m! ≤ e^{2λε}; the final
- * Horner evaluation adds γ_{2k}·C. So ρ ≤ δ·e^{2λε} + γ_{2k}·C. Misplaced breakpoints (roots accurate
- * to a few ulps) cost second order in the misplacement and are covered by the factor 2.
+ * Rounding (ρ_i). Standard model of binary64 arithmetic, u = 2^−53, γ_n = nu/(1 − nu) (Higham,
+ * Accuracy and Stability of Numerical Algorithms, 2002, §2.2, Lemma 3.1, eq. (3.5) for dot products,
+ * §5.1 for Horner). Let d be the longest row, and C ≥ Σ_i max_s|c_i(s)| ε^i over every level's computed
+ * coefficients: for a single polynomial c_0 = x ∈ [0,1] and c_{i+1} = r_i/(i+1) with |r_i| ≤
+ * 2λ·max|c_i| (up to the factor (1 + γ_{2d+3}) per order that rounding allows), so the sum is
+ * ≤ e^{2λε}(1 + γ_{2d+3})^k; for the pieces of piecewise results C is measured during the solve, and the
+ * larger is used. At each level j and state s, the computed iterate differs from the exact Picard image
+ * of the previous computed level (x + ∫ opt_a rhs_a with rhs_a built from the computed coefficients) by:
+ *   - the computed r̃_{a,i} of the chosen action: a dot product of d + 1 terms plus the mismatch between
+ *     the computed exit rate and its row's sum, ≤ γ_{2d+2}·2E_a·max|c_i| (coefError in ./interval.ts);
+ *     integrated over [0, ε] and summed over i: ≤ γ_{2d+2}·2λε·C;
+ *   - the choice, made from computed coefficients: where the chosen polynomial is verified ≥ every
+ *     other one (no crossing), the true right-hand sides may still differ by both actions' coefficient
+ *     errors: ≤ 2γ_{2d+2}·2λε·C; where a tie decision leaves another action better, the measured loss
+ *     `tieLoss` (./interval.ts, dominant);
+ *   - c_{i+1} = fl(r_i/(i+1)): ≤ u·C;
+ *   - on the slow path, the integral is made continuous by evaluating the previous piece at each
+ *     breakpoint (Horner, degree ≤ k: ≤ γ_{2k+2}·C each) and these offsets add over the pieces:
+ *     ≤ pieces·γ_{2k+2}·C; sums of piecewise functions (linear combinations) are dot products as above.
+ * So δ = 3γ_{2d+2}·2λε·C + u·C + pieces·γ_{2k+2}·C + tieLoss. These perturbations propagate through
+ * (i): E_j ≤ δ + ∫ 2λ E_{j−1}, so E_k ≤ δ·Σ_m (2λε)^m/m! ≤ δ·e^{2λε}. The final Horner evaluation at
+ * ε and the addition of x add γ_{2k+2}·C. Hence
+ *     ρ = 2·[δ·e^{2λε} + γ_{2k+2}·C],
+ * where the factor 2 covers the products of (1 + γ) factors that the first-order sum above leaves out
+ * (their excess is O(u²), far below a factor 2) and a breakpoint of the slow path misplaced by the root
+ * isolation (../piecewise/roots.ts, a few ulps of ε): the wrong polynomial is then used on a span of a
+ * few ulps where the two differ by at most their slope times that span, a second-order loss. That
+ * last term is an estimate, not a proof: it assumes that the root isolation places every crossing to
+ * within a few ulps. The inputs add a term of their own (see inputBound): rates are decimals rounded
+ * to doubles (relative error ≤ u) and the time bound too, so the right-hand side moves by ≤ 2uλ and
+ * time by ≤ uT; the flow is non-expansive and |dv/dt| ≤ λ, so values move by ≤ 3uλT.
  * Where it breaks down: when k·intervals·ρ is not small against the precision (asking for precision
  * near 1e-15 with many intervals), the solver refuses instead of reporting a bound it cannot keep.
  */
@@ -56,17 +75,33 @@ export function localBound(lambda: number, tau: number, k: number): number {
   return r;
 }
 
-/** Largest ε with T·(2λ)^{k+1}ε^k/(2·(k+1)!) ≤ budget, capped so that λε ≤ 1. */
+/** ρ for one interval, as derived above (tieLoss: the interval's measured tie loss, 0 if none). */
+export function roundingBound(lambda: number, eps: number, k: number, rowLen: number, coefNorm: number, pieces = 1, tieLoss = 0): number {
+  const z = 2 * lambda * eps;
+  const g = gamma(2 * rowLen);
+  const delta = 3 * g * z * coefNorm + UNIT_ROUNDOFF * coefNorm + pieces * gamma(2 * k + 2) * coefNorm + tieLoss;
+  return 2 * (delta * Math.exp(z) + gamma(2 * k + 2) * coefNorm);
+}
+
+/** The a-priori C for single polynomials: e^{2λε}(1 + γ_{2d+3})^k. */
+export function singleCoefNorm(lambda: number, eps: number, k: number, rowLen: number): number {
+  return Math.exp(2 * lambda * eps) * Math.pow(1 + gamma(2 * rowLen + 1), k);
+}
+
+/** Rounded inputs: rates and the time bound, each within relative u of their decimals: 3uλT. */
+export function inputBound(lambdaT: number): number {
+  return 3 * UNIT_ROUNDOFF * lambdaT * (1 + 1e-12);
+}
+
+/**
+ * Largest ε with T·(2λ)^{k+1}ε^k/(2·(k+1)!) ≤ budget, capped so that λε ≤ 1, computed in units of 1/λ
+ * (only λT and λε enter, so nothing overflows or underflows for any finite λ and T).
+ */
 export function chooseEpsilon(lambda: number, T: number, k: number, budget: number): number {
   let fact = 1;
   for (let i = 2; i <= k + 1; i++) fact *= i;
-  const eps = Math.pow((2 * fact * budget) / (T * Math.pow(2 * lambda, k + 1)), 1 / k);
-  return Math.min(eps, 1 / lambda, T);
-}
-
-/** ρ for one interval, as derived above. */
-export function roundingBound(lambda: number, eps: number, k: number, rowLen: number, coefNorm: number): number {
-  const z = 2 * lambda * eps;
-  const delta = 2 * (gamma(rowLen + 1) * z * coefNorm + 2 * UNIT_ROUNDOFF * coefNorm + gamma(2 * k) * z * coefNorm);
-  return delta * Math.exp(z) + gamma(2 * k) * coefNorm;
+  const lt = lambda * T;
+  // (λε)^k = 2·(k+1)!·budget / (λT·2^{k+1})
+  const le = Math.pow((2 * fact * budget) / lt / 2 ** (k + 1), 1 / k);
+  return Math.min(le / lambda, 1 / lambda, T);
 }

@@ -23,7 +23,8 @@
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
-import { chooseEpsilon, localBound, roundingBound } from './bound.js';
+import { chooseEpsilon, inputBound, localBound, roundingBound, singleCoefNorm } from './bound.js';
+import { scaleTime } from '../shared/scale.js';
 import { makeWork, runInterval, type KstepWork } from './interval.js';
 
 export interface KstepOptions {
@@ -41,10 +42,11 @@ export interface KstepOptions {
 
 const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'kstep', reason });
 
-export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
+export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const started = performance.now();
   const { precision, k } = opts;
-  const T = m.timeBound;
+  let m = model;
+  let T = m.timeBound;
   const S = m.nStates;
   // --- special cases -------------------------------------------------------------------------
   if (!Number.isInteger(k) || k < 1 || k > 8) return refuse(`k must be an integer from 1 to 8, got ${k}`);
@@ -72,6 +74,15 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     const stats = { intervals: 0, maxPieces: 1, seconds: (performance.now() - started) / 1000, lambda: 0 };
     return { kind: 'solved', method: 'kstep', params, values: x0, errorBound: 0, scheduler: scheduler(), stats };
   }
+  // --- time in units of about 1/λ (exact: a power of two), so powers of λε cannot over/underflow ---
+  const frozen = new Uint8Array(S);
+  if (within) for (let s = 0; s < S; s++) frozen[s] = m.goal[s]!;
+  const scaled = scaleTime(m, lambda, frozen);
+  if ('refused' in scaled) return refuse(scaled.refused);
+  const unit = scaled.c; // original time = scaled time · c
+  m = scaled.m;
+  T = m.timeBound;
+  lambda *= unit;
   // --- interval length from the bound ----------------------------------------------------------
   if (opts.intervals !== undefined && !(Number.isInteger(opts.intervals) && opts.intervals >= 1))
     return refuse(`intervals must be an integer ≥ 1, got ${opts.intervals}`);
@@ -85,7 +96,7 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     eps = opts.intervals ? T / opts.intervals : chooseEpsilon(lambda, T, k, budget);
     N = opts.intervals ?? Math.ceil(T / eps);
     if (!(N <= maxIntervals)) break;
-    const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, Math.exp(2 * lambda * eps));
+    const roundEstimate = N * roundingBound(lambda, eps, k, rowLen, singleCoefNorm(lambda, eps, k, rowLen)) + inputBound(lambda * T);
     if (opts.intervals || roundEstimate + budget <= 0.99 * precision) break;
     budget = 0.99 * precision - 1.5 * roundEstimate;
     if (it >= 3 || budget < 0.4 * precision)
@@ -103,14 +114,21 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
   let round = 0;
   let intervals = 0;
   let halvings = 0;
-  const rec = new ChoiceRecorder(m, T);
+  let maxPieces = 1;
+  let tieLoss = 0;
+  const rec = new ChoiceRecorder(m, T, unit);
   const span = (t0: number, t1: number, depth: number): string | undefined => {
     const len = t1 - t0;
     w.coefNorm = 1;
+    w.tieLoss = 0;
+    w.maxPieces = 1;
     w.pieceDec.clear();
     if (runInterval(w, x, len, next)) {
       trunc += localBound(lambda, len, k);
-      round += roundingBound(lambda, len, k, rowLen, Math.max(w.coefNorm, Math.exp(2 * lambda * len)));
+      const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
+      round += roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss);
+      maxPieces = Math.max(maxPieces, w.maxPieces);
+      tieLoss += w.tieLoss;
       intervals++;
       rec.record(w, t0);
       const tmp = x;
@@ -131,11 +149,12 @@ export function solveKstep(m: CompiledModel, opts: KstepOptions): Outcome {
     if (why) return refuse(why);
   }
   // Summing the bounds in floating point: a relative margin of 1e-9 covers its rounding.
-  const errorBound = (trunc + round) * (1 + 1e-9);
+  const errorBound = (trunc + round + inputBound(lambda * T) + scaled.flushBound) * (1 + 1e-9);
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
   if (errorBound > precision) return refuse(`the bound reached ${errorBound}, above the precision ${precision}`);
   const stats = {
-    intervals, maxPieces: w.maxPieces, seconds: (performance.now() - started) / 1000, lambda, epsilon: eps,
-    truncationBound: trunc, roundingBound: round, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
+    intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
+    truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }
@@ -152,7 +171,8 @@ class ChoiceRecorder {
   private readonly cur: Int32Array;
   private readonly segs = new Map<number, Segment[]>();
   private readonly owned: number[] = [];
-  constructor(private readonly m: CompiledModel, private readonly T: number) {
+  /** T and times in scaled units; `unit` converts them back (elapsed time = (T − t)·unit). */
+  constructor(private readonly m: CompiledModel, private readonly T: number, private readonly unit: number) {
     this.cur = new Int32Array(m.nStates).fill(-1);
     for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) this.owned.push(s);
   }
@@ -174,7 +194,7 @@ class ChoiceRecorder {
     if (c >= 0 && c !== d) {
       let list = this.segs.get(s);
       if (!list) this.segs.set(s, (list = []));
-      list.push({ from: this.T - t, action: this.m.actionNames[c]! });
+      list.push({ from: (this.T - t) * this.unit, action: this.m.actionNames[c]! });
     }
     this.cur[s] = d;
   }

@@ -17,7 +17,7 @@
  * Allocation: none per state in the fast paths; the slow path allocates its piecewise objects.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import { absSum } from '../piecewise/poly.js';
+import { absSum, gamma } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
 
@@ -56,6 +56,12 @@ export interface KstepWork {
   readonly looseTie: number;
   /** λ · max_s |c_i(s)| for the current level (i = 0: the start values): the scale of rounding in r_{a,i}. */
   readonly coefScale: Float64Array;
+  /** max_s |c_i(s)| for the current level (i = 0: the start values). */
+  readonly coefMax: Float64Array;
+  /** γ_{2d+2} for the longest row d of the model (see coefError). */
+  readonly gammaCoef: number;
+  /** Largest ∫ over the interval of what a tie decision can lose, over states and levels (see dominant). */
+  tieLoss: number;
   maxPieces: number;
   /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
    *  a-priori bound e^{2λ·len}, see ./bound.ts). */
@@ -65,24 +71,58 @@ export interface KstepWork {
   dirtyStates: number;
 }
 
+/** Longest row (successors) of any action plus one: the length d + 1 of a coefficient's dot product. */
+function rowLen(m: CompiledModel): number {
+  let d = 0;
+  for (let a = 0; a < m.nActions; a++) d = Math.max(d, m.rowStart[a + 1]! - m.rowStart[a]!);
+  return d + 1;
+}
+
 export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Float64Array, pieceCap: number, looseTie = 0): KstepWork {
   const S = m.nStates;
   return {
     m, k, active, C: Array.from({ length: k }, () => new Float64Array(S)), R: new Float64Array(m.nActions * k),
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
-    pieceCap, looseTie, coefScale: new Float64Array(k), maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
+    pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
   };
 }
 
-/** Coefficient differences below this multiple of their size (and of λ·max|c_i|) are rounding. */
-const TIE_TOLERANCE = 1e-12;
+/**
+ * Rounding bound of the computed coefficient r̃_{a,i} = fl(Σ_t R_t c_i(s'_t) − E_a c_i(s)), a dot
+ * product of d + 1 terms (Higham 2002, Lemma 3.1 and eq. (3.5): |error| ≤ γ_{d+1} Σ|terms|), plus the
+ * mismatch between the computed exit rate and the sum of the row's rates (≤ γ_d E_a |c_i(s)|): in all
+ * ≤ γ_{2d+2}·(Σ_t R_t |c_i(s'_t)| + E_a |c_i(s)|). Only the state's own quantities enter.
+ */
+function coefError(w: KstepWork, a: number, s: number, i: number, x: Float64Array): number {
+  const { rowStart, col, rate, exitRate } = w.m;
+  const c = i === 0 ? x : w.C[i]!;
+  let acc = exitRate[a]! * Math.abs(c[s]!);
+  for (let t = rowStart[a]!; t < rowStart[a + 1]!; t++) acc += rate[t]! * Math.abs(c[col[t]!]!);
+  return w.gammaCoef * acc * (1 + w.gammaCoef);
+}
+
+/** Is the computed difference d of coefficient i between actions b and best within rounding? */
+function isTie(w: KstepWork, d: number, b: number, best: number, s: number, i: number, rb: number, rbest: number, x: Float64Array): boolean {
+  if (w.looseTie > 0) return Math.abs(d) <= w.looseTie * (Math.abs(rb) + Math.abs(rbest) + w.coefScale[i]!);
+  const m = w.m;
+  // Cheap test first: coefError ≤ γ·2E_a·max_s|c_i(s)|; only a near-tie pays for the exact sums.
+  const cheap = w.gammaCoef * 2 * (m.exitRate[b]! + m.exitRate[best]!) * w.coefMax[i]! * (1 + 1e-12);
+  if (Math.abs(d) > cheap) return false;
+  return Math.abs(d) <= coefError(w, b, s, i, x) + coefError(w, best, s, i, x);
+}
 
 /**
  * Index (within the state) of the action that is best on all of [0, len], or −1 when another one
- * overtakes it inside (0, len). Best at 0 is lexicographic in (value, slope, …); ties: lowest index.
+ * overtakes it inside (0, len). Best at 0 is lexicographic in (value, slope, …), where a difference
+ * within the rounding bound of the two coefficients (isTie) is decided by the next order; a tie at
+ * every order keeps the lower index. What such a choice can lose is paid for: for every other action
+ * b whose computed difference to the chosen one is positive somewhere in [0, len] (no interior
+ * crossing, else the caller takes the slow path), a bound on its largest value times len goes into
+ * w.tieLoss, which ./bound.ts adds to the interval's bound. Below the rounding bound this is a rounding
+ * loss; a tie rule whose tolerance is not paid for is the planted bug `looseTie`.
  */
-function dominant(w: KstepWork, a0: number, nA: number, j: number, len: number, sense: number): number {
+function dominant(w: KstepWork, s: number, a0: number, nA: number, j: number, len: number, sense: number, x: Float64Array): number {
   const { R, k, diff } = w;
   let best = 0;
   for (let b = 1; b < nA; b++) {
@@ -90,14 +130,9 @@ function dominant(w: KstepWork, a0: number, nA: number, j: number, len: number, 
       const rb = R[(a0 + b) * k + i]!;
       const rbest = R[(a0 + best) * k + i]!;
       const d = sense * (rb - rbest);
-      // Differences at the level of rounding are ties, decided by the next order: otherwise a tie
-      // broken by rounding at τ = 0 can hide an action that is better on all of (0, len].
-      const tol = TIE_TOLERANCE * (Math.abs(rb) + Math.abs(rbest) + w.coefScale[i]!);
-      if (d > tol) {
-        best = b;
-        break;
-      }
-      if (d < -tol) break;
+      if (d === 0 || isTie(w, d, a0 + b, a0 + best, s, i, rb, rbest, x)) continue;
+      if (d > 0) best = b;
+      break;
     }
   }
   for (let b = 0; b < nA; b++) {
@@ -111,6 +146,14 @@ function dominant(w: KstepWork, a0: number, nA: number, j: number, len: number, 
     }
     if (diff[0]! + rest <= 0) continue;
     for (const r of realRoots(diff, 0, j - 1, 0, len)) if (r > 0 && r < len) return -1;
+    // No crossing inside: the sign is constant on (0, len). Charge what b may be better by.
+    if (w.looseTie > 0) continue;
+    let mid = diff[j - 1]!;
+    for (let i = j - 2; i >= 0; i--) mid = mid * (0.5 * len) + diff[i]!;
+    // Positive inside: at most d_0 + Σ|d_i| len^i. Positive only at 0: a crossing closer to 0 than
+    // the root isolation resolves, after which b is worse; d_0 (a tie, so at rounding level) bounds it.
+    const loss = mid > 0 ? diff[0]! + rest : diff[0]! > 0 ? diff[0]! : 0;
+    if (loss > 0) w.tieLoss = Math.max(w.tieLoss, loss * len * (1 + 1e-12));
   }
   return best;
 }
@@ -245,6 +288,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         if (v > mx) mx = v;
       }
       w.coefScale[i] = m.lambda * mx;
+      w.coefMax[i] = mx;
     }
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
@@ -266,7 +310,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         for (let q = 0; q < nA; q++) accumulate(w, a0 + q, s, 0, j, x);
       }
       let best = 0;
-      if (dirty < 2 && nA > 1) best = dominant(w, a0, nA, j, len, owner[s]! < 0 ? -1 : 1);
+      if (dirty < 2 && nA > 1) best = dominant(w, s, a0, nA, j, len, owner[s]! < 0 ? -1 : 1, x);
       if (dirty === 2 || best < 0) {
         const v = slowState(w, s, j, len, x, nPend);
         if (v !== v) return false;

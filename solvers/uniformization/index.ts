@@ -15,7 +15,8 @@
  * Bound. (1) Truncation: P^k v ∈ [0,1]^S, so a piece's truncation error is ≤ its neglected
  * Poisson mass δ_p (foxGlynn.ts); the exact piece map e^{Qτ} is stochastic, hence non-expansive
  * in the sup norm, so earlier errors are not amplified and the errors of the pieces add up.
- * (2) Rounding (binary64, u = 2^-53, first-order terms with a 1 % margin): one row of P x has
+ * (2) Rounding (binary64, u = 2^-53, first-order terms with a 1 % margin, which makes them rigorous:
+ * γ_n = nu/(1 − nu) ≤ 1.01·nu whenever nu ≤ 1/101; Higham 2002, Lemma 3.1): one row of P x has
  * d + 1 products, its entries carry ≤ (d + 1)u (diagonal) and u (off-diagonal) relative error,
  * and recursive summation adds ≤ (d + 1)u, so one mat-vec adds ≤ (3d + 4)u in the sup norm, where
  * d is the largest row length (P is stochastic, so earlier rounding errors are not amplified).
@@ -137,12 +138,14 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
     v = clampUnit(sum); // true values lie in [0, 1]: clamping never adds error
     if (w.right > widest.right) widest = { left: w.left, right: w.right };
   }
+  const errorBound = p.tails + p.rounding;
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
   return {
     kind: 'solved',
     method: METHOD,
     params: { precision: opts.precision },
     values: v,
-    errorBound: p.tails + p.rounding,
+    errorBound,
     stats: { iterations, left: widest.left, right: widest.right, pieces: pieces.length, seconds: nowSeconds() - t0 },
   };
 }
