@@ -4,20 +4,21 @@
  *
  * Every draw is one near-tie (./nearTie.ts): state s, owned by the max or the min player, has actions
  * a1 and a2 whose Bellman right-hand sides agree at time left 0 in value and in derivatives up to
- * order j − 1 and differ at order j (j = 0 … 3) by a relative gap δ = 10^-3 … 10^-13; a2 is the
+ * order j − 1 and differ at order j (j = 0 … 3) by a relative gap δ in [10^-13, 10^-3); a2 is the
  * better action for the owner near the deadline or the worse one. The successors of s are the goal
  * g, a sink z and (for higher orders) states u1, u2 that reach g at their own rates. Around it:
  * - a frozen goal: in mode `within`, g has a huge rate (10^6 … 10^12) out of it, which the Bellman
  *   equations never see (goal states are absorbing there) but a solver's global rate scale does;
  *   in mode `at`, g may leak to z at a moderate rate instead;
- * - an unrelated fast state f (rate 2 … 20 to z, the others 0.1 … 1), which raises λ without touching s;
+ * - an unrelated fast state f (rate 1 … 1000 to z; the other rates are 0.1 … 1), which raises λ without
+ *   touching s: a solver's tolerance that grows with λ then swallows gaps that still cost values;
  * - the whole model scaled by 10^S, S = −150 … 150 (every rate × 10^S, the time bound × 10^−S, so λT
  *   and every value stay the same);
  * - every rate and the time bound written as decimal text in a drawn form ("2.5e+1", "2.5E+1",
  *   "25e-0", ".25e2", plain digits, a JSON number; see ./decimalText.ts), read exactly by the oracles.
  * Shrinking is fast-check's on the parameters, and the model is rebuilt from them each time, so a
  * shrunk counterexample is still a near-tie; features that the failure does not need shrink away
- * (the option of a huge rate or a fast state to none, S to 0, j to 0, δ to 10^-3).
+ * (the option of a huge rate or a fast state to none, S to 0, j to 0, δ towards 10^-4).
  */
 import fc from 'fast-check';
 import type { ModelObject, RateInput } from '../format/build.js';
@@ -27,7 +28,9 @@ import { nearTieRates, type SuccessorChain } from './nearTie.js';
 
 export interface AdversarialDraw {
   readonly order: number;
+  /** δ = gapMant/1000 · 10^-(gapExp − 1): gapExp 4 … 13, gapMant 100 … 999. */
   readonly gapExp: number;
+  readonly gapMant: number;
   /** a2 is the better action for the owner at time left 0 (else the worse). */
   readonly a2Better: boolean;
   readonly owner: 'max' | 'min';
@@ -41,8 +44,9 @@ export interface AdversarialDraw {
   readonly hugeExp?: number | undefined;
   /** Mantissa of g's leak to z in mode `at`, or undefined. */
   readonly leak?: number | undefined;
-  /** Mantissa of the fast state's rate (/ 50: 2 … 19.98), or undefined for no fast state. */
+  /** Mantissa of the fast state's rate (/ 1000), or undefined for no fast state; its decade 1 … 3. */
   readonly fast?: number | undefined;
+  readonly fastExp: number;
   readonly scaleExp: number;
   readonly forms: readonly TextForm[];
 }
@@ -68,8 +72,12 @@ export function arbAdversarialDraw(opts: { maxStates?: number } = {}): fc.Arbitr
   const maxOrder = Math.max(0, Math.min(3, (opts.maxStates ?? 8) - 2));
   return fc.record({
     order: fc.integer({ min: 0, max: maxOrder }),
-    gapExp: fc.integer({ min: 3, max: 13 }),
-    a2Better: fc.boolean(),
+    // Half the gaps coarse (1e-4 … 1e-3: a wrong decision then costs more than a typical precision),
+    // half anywhere in 1e-13 … 1e-3 (down to the rounding level of doubles).
+    gapExp: fc.oneof(fc.constant(4), fc.integer({ min: 4, max: 13 })),
+    gapMant: mant,
+    // The later action better twice as often: keeping the lowest index on a tie is the common slip.
+    a2Better: fc.oneof({ weight: 2, arbitrary: fc.constant(true) }, { weight: 1, arbitrary: fc.constant(false) }),
     owner: fc.constantFrom<'max' | 'min'>('max', 'min'),
     mode: fc.constantFrom<GoalMode>('within', 'at'),
     extra: fc.integer({ min: 0, max: 3 }),
@@ -78,6 +86,8 @@ export function arbAdversarialDraw(opts: { maxStates?: number } = {}): fc.Arbitr
     hugeExp: fc.option(fc.integer({ min: 6, max: 12 }), { nil: undefined }),
     leak: fc.option(mant, { nil: undefined }),
     fast: fc.option(mant, { nil: undefined }),
+    // Half the fast states 100 … 1000 times faster than s: a tolerance that grows with λ is then large.
+    fastExp: fc.oneof(fc.constant(3), fc.integer({ min: 1, max: 3 })),
     scaleExp: fc.oneof(fc.constant(0), fc.integer({ min: -150, max: 150 })),
     forms: fc.array(fc.constantFrom(...TEXT_FORMS), { minLength: FORM_SLOTS, maxLength: FORM_SLOTS }),
   });
@@ -102,7 +112,7 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
   ];
   const chain: SuccessorChain = { goal: [true, false, false, false], frozen: [within, false, false, false], rows };
   const base = [0, 1, 2, 3].slice(0, n).map(r);
-  const gap = new Dec(10).pow(-d.gapExp);
+  const gap = new Dec(d.gapMant).div(1000).times(new Dec(10).pow(1 - d.gapExp));
   const sign = (d.a2Better ? 1 : -1) * (d.owner === 'max' ? 1 : -1) as 1 | -1;
   let order = Math.min(d.order, n - 1);
   let second = nearTieRates(chain, base, order, gap, sign);
@@ -124,7 +134,7 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
   if (n >= 3) states.u1 = { actions: { go: { g: text(r(4)), z: text(r(5)) } } };
   if (n >= 4) states.u2 = { actions: { go: { g: text(r(6)), u1: text(r(7)) } } };
   const fast = d.fast !== undefined && Object.keys(states).length < maxStates;
-  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).div(50)) } } };
+  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).div(1000).times(new Dec(10).pow(d.fastExp))) } } };
   const features: AdversarialFeatures = {
     order, gap: gap.toNumber(), a2Better: d.a2Better, owner: d.owner, mode: d.mode,
     frozenHuge: hugeRate !== undefined, fast, scaleExp: d.scaleExp, successors: n,

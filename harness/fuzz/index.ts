@@ -88,11 +88,12 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const t0 = performance.now();
   const arb = fuzzArbitrary(opts.maxStates);
   let done = 0;
-  const drawn: Record<FuzzFamily, number> = { random: 0, switching: 0, adversarial: 0 };
+  // Family of every call up to `runs`; the first out.numRuns of them are the runs proper.
+  const families: FuzzFamily[] = [];
   const prop = fc.asyncProperty(arb, async ({ family, model: obj }) => {
     // fast-check calls the property once per run and once per shrink step.
     if (done < opts.runs) {
-      drawn[family]++;
+      families.push(family);
       opts.onProgress?.(++done, opts.runs);
     }
     const r = await judgeModel(obj, opts);
@@ -100,6 +101,8 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
+  const drawn: Record<FuzzFamily, number> = { random: 0, switching: 0, adversarial: 0 };
+  for (const f of families.slice(0, out.numRuns)) drawn[f]++;
   if (!out.failed || !out.counterexample) return { runs: out.numRuns, drawn, seed: opts.seed, seconds };
   const model = out.counterexample[0].model;
   const final = await judgeModel(model, opts);

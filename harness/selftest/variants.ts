@@ -73,6 +73,11 @@ export const VARIANTS: readonly Variant[] = [
     },
   },
   {
+    name: 'loose-tie',
+    bug: 'coefficient differences below 1e-6 of a global scale (with the largest exit rate) are called ties, unpaid by the bound (k-step scheme)',
+    solve: (_model, m, p) => relabel(solveKstep(m, { precision: p, k: 3, looseTie: 1e-6 }), 'loose-tie'),
+  },
+  {
     name: 'bound-third',
     bug: 'the reported bound is a third of the derived one (Euler)',
     solve: (_model, m, p) => {
