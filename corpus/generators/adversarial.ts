@@ -44,7 +44,8 @@ export interface AdversarialDraw {
   readonly hugeExp?: number | undefined;
   /** Mantissa of g's leak to z in mode `at`, or undefined. */
   readonly leak?: number | undefined;
-  /** Mantissa of the fast state's rate (/ 1000), or undefined for no fast state; its decade 1 … 3. */
+  /** Mantissa of the fast state's rate, or undefined for no fast state; rate = mantissa·10^(fastExp − 3):
+   *  1 … 10, 10 … 100 or 100 … 1000 (fastExp 1, 2, 3). */
   readonly fast?: number | undefined;
   readonly fastExp: number;
   readonly scaleExp: number;
@@ -85,7 +86,7 @@ export function arbAdversarialDraw(opts: { maxStates?: number } = {}): fc.Arbitr
     time: mant,
     hugeExp: fc.option(fc.integer({ min: 6, max: 12 }), { nil: undefined }),
     leak: fc.option(mant, { nil: undefined }),
-    fast: fc.option(mant, { nil: undefined }),
+    fast: fc.option(fc.noBias(mant), { nil: undefined }),
     // Half the fast states 100 … 1000 times faster than s: a tolerance that grows with λ is then large.
     fastExp: fc.oneof(fc.constant(3), fc.integer({ min: 1, max: 3 })),
     scaleExp: fc.oneof(fc.constant(0), fc.integer({ min: -150, max: 150 })),
@@ -134,7 +135,7 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
   if (n >= 3) states.u1 = { actions: { go: { g: text(r(4)), z: text(r(5)) } } };
   if (n >= 4) states.u2 = { actions: { go: { g: text(r(6)), u1: text(r(7)) } } };
   const fast = d.fast !== undefined && Object.keys(states).length < maxStates;
-  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).div(1000).times(new Dec(10).pow(d.fastExp))) } } };
+  if (fast) states.f = { actions: { spin: { z: text(new Dec(d.fast!).times(new Dec(10).pow(d.fastExp - 3))) } } };
   const features: AdversarialFeatures = {
     order, gap: gap.toNumber(), a2Better: d.a2Better, owner: d.owner, mode: d.mode,
     frozenHuge: hugeRate !== undefined, fast, scaleExp: d.scaleExp, successors: n,
