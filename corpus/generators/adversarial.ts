@@ -37,7 +37,7 @@ export interface AdversarialDraw {
   readonly mode: GoalMode;
   /** Successors of s beyond the order + 1 that the tie needs (0 … 3). */
   readonly extra: number;
-  /** Mantissas 100 … 999 of the base rates and the time bound (/ 1000: 0.1 … 0.999; the time bound / 500: 0.2 … 1.998). */
+  /** Mantissas 100 … 999 of the base rates (/ 1000: 0.1 … 0.999) and the time bound (/ 500: 0.2 … 1.998). */
   readonly rates: readonly number[];
   readonly time: number;
   /** Exponent of the huge rate out of the frozen goal (mode within), or undefined. */
@@ -100,7 +100,10 @@ export function arbAdversarialModelObject(opts: { maxStates?: number } = {}): fc
 
 const NAMES = ['g', 'z', 'u1', 'u2'];
 
-export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: ModelObject; features: AdversarialFeatures } {
+export function buildAdversarial(
+  d: AdversarialDraw,
+  maxStates = 8,
+): { model: ModelObject; features: AdversarialFeatures } {
   const r = (i: number): Dec => new Dec(d.rates[i % RATE_SLOTS]!).div(1000);
   // Successors of s: g, z, u1, u2 (the first n of them); states s, g, z, u1 …, and f if room is left.
   const n = Math.min(4, Math.max(d.order + 1, Math.min(4, d.order + 1 + d.extra)), Math.max(1, maxStates - 1));
@@ -124,13 +127,16 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
   const scale = new Dec(10).pow(d.scaleExp);
   let slot = 0;
   const text = (x: Dec): RateInput => decimalText(x.times(scale), d.forms[slot++ % FORM_SLOTS]!);
-  const action = (rates: readonly Dec[]): Record<string, RateInput> => Object.fromEntries(rates.map((x, u) => [NAMES[u]!, text(x)]));
+  const action = (rates: readonly Dec[]): Record<string, RateInput> =>
+    Object.fromEntries(rates.map((x, u) => [NAMES[u]!, text(x)]));
   const states: NonNullable<ModelObject['states']> = {
     s: { owner: d.owner, actions: { a1: action(base), a2: action(a2) } },
   };
   const hugeRate = within && d.hugeExp !== undefined ? new Dec(10).pow(d.hugeExp) : undefined;
   const leakRate = !within && d.leak !== undefined ? new Dec(d.leak).div(500) : undefined;
-  states.g = hugeRate ? { actions: { boom: { z: text(hugeRate) } } } : leakRate ? { actions: { leak: { z: text(leakRate) } } } : {};
+  if (hugeRate) states.g = { actions: { boom: { z: text(hugeRate) } } };
+  else if (leakRate) states.g = { actions: { leak: { z: text(leakRate) } } };
+  else states.g = {};
   states.z = {};
   if (n >= 3) states.u1 = { actions: { go: { g: text(r(4)), z: text(r(5)) } } };
   if (n >= 4) states.u2 = { actions: { go: { g: text(r(6)), u1: text(r(7)) } } };
@@ -157,8 +163,9 @@ export function buildAdversarial(d: AdversarialDraw, maxStates = 8): { model: Mo
 
 function describe(f: AdversarialFeatures): string {
   const parts = [
-    `near-tie at order ${f.order} in state s (owner ${f.owner}): a1 and a2 agree at time left 0 below order ${f.order} ` +
-      `and differ there by relative gap ${f.gap.toExponential()}, a2 the ${f.a2Better ? 'better' : 'worse'} for the owner`,
+    `near-tie at order ${f.order} in state s (owner ${f.owner}): a1 and a2 agree at time left 0 below ` +
+      `order ${f.order} and differ there by relative gap ${f.gap.toExponential()}, ` +
+      `a2 the ${f.a2Better ? 'better' : 'worse'} for the owner`,
     f.frozenHuge ? 'the frozen goal g has a huge rate out of it' : '',
     f.fast ? 'an unrelated fast state f' : '',
     f.scaleExp !== 0 ? `rates scaled by 1e${f.scaleExp} and the time bound by 1e${-f.scaleExp}` : '',

@@ -50,7 +50,12 @@ export function successorDerivatives(chain: SuccessorChain, order: number): Dec[
 }
 
 /** r_i(a) for i = 0 … order, with v_s^{(i)}(0) taken from the action `ref` (ties below the order). */
-export function rhsCoefficients(chain: SuccessorChain, order: number, rates: readonly Dec[], ref: readonly Dec[] = rates): Dec[] {
+export function rhsCoefficients(
+  chain: SuccessorChain,
+  order: number,
+  rates: readonly Dec[],
+  ref: readonly Dec[] = rates,
+): Dec[] {
   const d = successorDerivatives(chain, order);
   const out: Dec[] = [];
   let vs = new Dec(0);
@@ -97,7 +102,14 @@ function solve(A: Dec[][], b: Dec[]): Dec[] | undefined {
  * The second action's rates (rounded to `digits` significant digits), or undefined when the system
  * is singular or a rate would not stay positive. Needs order < rates.length and rates[0] the goal.
  */
-export function nearTieRates(chain: SuccessorChain, rates: readonly Dec[], order: number, gap: Dec, sign: 1 | -1, digits = 30): Dec[] | undefined {
+export function nearTieRates(
+  chain: SuccessorChain,
+  rates: readonly Dec[],
+  order: number,
+  gap: Dec,
+  sign: 1 | -1,
+  digits = 30,
+): Dec[] | undefined {
   if (order >= rates.length) return undefined;
   const d = successorDerivatives(chain, order);
   const c: Dec[][] = [];
@@ -107,7 +119,8 @@ export function nearTieRates(chain: SuccessorChain, rates: readonly Dec[], order
     vs = rates.reduce((acc, r, u) => acc.plus(r.times(c[i]![u]!)), new Dec(0));
   }
   const rj = vs; // r_order(first action)
-  const scale = rj.isZero() ? rates.reduce((acc, r, u) => acc.plus(r.times(c[order]![u]!.abs())), new Dec(0)) : rj.abs();
+  const size = rates.reduce((acc, r, u) => acc.plus(r.times(c[order]![u]!.abs())), new Dec(0));
+  const scale = rj.isZero() ? size : rj.abs();
   if (scale.isZero()) return undefined;
   const A = c.map((row) => row.slice(0, order + 1));
   const b = c.map((_, i) => (i < order ? new Dec(0) : scale.times(gap).times(sign)));

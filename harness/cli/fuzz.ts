@@ -62,9 +62,12 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
         },
       });
       const d = summary.drawn;
-      const families = `fuzz: families drawn: ${d.random} random, ${d.switching} switching, ${d.adversarial} adversarial (near-ties)`;
+      const families = `fuzz: families drawn: ${d.random} random, ${d.switching} switching, ` +
+        `${d.adversarial} adversarial (near-ties)`;
       if (!summary.failure) {
-        process.stdout.write(`fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, in ${summary.seconds.toFixed(1)} s\n${families}\n`);
+        const head = `fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, ` +
+          `in ${summary.seconds.toFixed(1)} s`;
+        process.stdout.write(`${head}\n${families}\n`);
         return setExit(0);
       }
       const f = summary.failure;

@@ -79,7 +79,10 @@ export function fuzzArbitrary(maxStates: number): fc.Arbitrary<{ family: FuzzFam
   return fc.oneof(
     { withCrossShrink: true },
     { weight: 9, arbitrary: arbModelObject({ maxStates, decades: 4, maxTime: 2, kind: 'any' }).map(tag('random')) },
-    { weight: 3, arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((maxStates - 2) / 2)) }).map(tag('switching')) },
+    {
+      weight: 3,
+      arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((maxStates - 2) / 2)) }).map(tag('switching')),
+    },
     { weight: 4, arbitrary: arbAdversarialModelObject({ maxStates }).map(tag('adversarial')) },
   );
 }

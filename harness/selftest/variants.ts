@@ -74,7 +74,7 @@ export const VARIANTS: readonly Variant[] = [
   },
   {
     name: 'loose-tie',
-    bug: 'coefficient differences below 1e-6 of a global scale (with the largest exit rate) are called ties, unpaid by the bound (k-step scheme)',
+    bug: 'coefficient differences below 1e-6 of a scale with the largest exit rate are ties the bound does not pay for (k-step scheme)',
     solve: (_model, m, p) => relabel(solveKstep(m, { precision: p, k: 3, looseTie: 1e-6 }), 'loose-tie'),
   },
   {

@@ -9,7 +9,8 @@ import { Decimal } from 'decimal.js';
 import { describe, expect, test } from 'vitest';
 import type { ModelObject } from '../../../corpus/format/build.js';
 import { validateModelObject } from '../../../corpus/format/load.js';
-import { arbAdversarialDraw, buildAdversarial, type AdversarialFeatures } from '../../../corpus/generators/adversarial.js';
+import { arbAdversarialDraw, buildAdversarial } from '../../../corpus/generators/adversarial.js';
+import type { AdversarialFeatures } from '../../../corpus/generators/adversarial.js';
 import { Dec, TEXT_FORMS, decimalText } from '../../../corpus/generators/decimalText.js';
 
 const D = Decimal.clone({ precision: 80, toExpNeg: -9e15, toExpPos: 9e15 });
@@ -47,7 +48,8 @@ function coefficients(m: ModelObject, order: number): { a1: Num[]; a2: Num[]; si
   for (let i = 0; i <= order; i++) {
     const r = (act: Record<string, string | number>): Num =>
       Object.entries(act).reduce((acc, [u, rate]) => acc.plus(read(rate).times(ds[i]!.get(u)!.minus(vs))), new D(0));
-    const size = Object.entries(a1).reduce((acc, [u, rate]) => acc.plus(read(rate).times(ds[i]!.get(u)!.minus(vs).abs())), new D(0));
+    const size = Object.entries(a1).reduce((acc, [u, rate]) => acc.plus(read(rate).times(ds[i]!.get(u)!.minus(vs).abs())),
+      new D(0));
     out.a1.push(r(a1));
     out.a2.push(r(a2));
     out.size.push(size);
@@ -79,7 +81,8 @@ function rateTexts(m: ModelObject): (string | number)[] {
 }
 
 describe('adversarial family', () => {
-  const draws = fc.sample(arbAdversarialDraw({ maxStates: 8 }), { seed: 42, numRuns: 300 }).map((d) => buildAdversarial(d, 8));
+  const draws = fc.sample(arbAdversarialDraw({ maxStates: 8 }), { seed: 42, numRuns: 300 })
+    .map((d) => buildAdversarial(d, 8));
 
   test('300 draws at seed 42: valid models, each with the near-tie it states, verified on the model', () => {
     for (const { model, features } of draws) {
@@ -96,7 +99,9 @@ describe('adversarial family', () => {
     for (const order of [0, 1, 2, 3]) expect(f.filter((x) => x.order === order).length).toBeGreaterThan(20);
     const decades = new Set(f.map((x) => Math.ceil(-Math.log10(x.gap)))); // e: δ in [1e-e, 1e-(e-1))
     for (let e = 4; e <= 13; e++) expect(decades.has(e)).toBe(true);
-    for (const owner of ['max', 'min']) for (const better of [true, false]) expect(f.some((x) => x.owner === owner && x.a2Better === better)).toBe(true);
+    for (const owner of ['max', 'min']) {
+      for (const better of [true, false]) expect(f.some((x) => x.owner === owner && x.a2Better === better)).toBe(true);
+    }
     expect(new Set(draws.map((d) => d.model.goal_mode))).toEqual(new Set(['within', 'at']));
   });
 

@@ -20,7 +20,7 @@ describe('fuzz families', () => {
 describe('fuzz catches variant:loose-tie', () => {
   // The settings of the fuzz stage of selftest (harness/selftest/index.ts). Passes once the solver
   // honours KstepOptions.looseTie (a no-op before the k-step tie fix).
-  test('seed 1, 100 runs, up to 6 states: a disagreement with the reference, shrunk to an adversarial near-tie', async () => {
+  test('seed 1, 100 runs, up to 6 states: a disagreement with kstep:4, shrunk to an adversarial near-tie', async () => {
     const s = await runFuzz({ runs: 100, seed: 1, maxStates: 6, precision: 1e-5, methods: ['variant:loose-tie'] });
     expect(s.failure).toBeDefined();
     const f = s.failure!;
