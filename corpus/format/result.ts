@@ -17,6 +17,9 @@ export interface Solved {
   /** Optional high-precision values per state index (oracles). */
   readonly valuesDecimal?: readonly string[];
   readonly errorBound: number;
+  /** Optional one-sided bounds per state index: valuesLower ≤ v(T) ≤ valuesUpper (a claim too). */
+  readonly valuesLower?: Float64Array;
+  readonly valuesUpper?: Float64Array;
   /** The strategy the solver found, if any. */
   readonly scheduler?: Scheduler;
   readonly stats: Readonly<Record<string, number>>;
@@ -41,6 +44,8 @@ export interface ResultJson {
   goal_mode: GoalMode;
   values: Record<string, number>;
   values_decimal?: Record<string, string>;
+  values_lower?: Record<string, number>;
+  values_upper?: Record<string, number>;
   error_bound: number;
   scheduler?: { format: 'crossbound-scheduler/1'; model?: string; choices: Record<string, { from: number; action: string }[]> };
   stats: Record<string, number>;
@@ -68,6 +73,16 @@ export function toResultJson(
     const dec: Record<string, string> = {};
     model.stateNames.forEach((n, i) => (dec[n] = solved.valuesDecimal![i]!));
     out.values_decimal = dec;
+  }
+  if (solved.valuesLower && solved.valuesUpper) {
+    const lo: Record<string, number> = {};
+    const hi: Record<string, number> = {};
+    model.stateNames.forEach((n, i) => {
+      lo[n] = solved.valuesLower![i]!;
+      hi[n] = solved.valuesUpper![i]!;
+    });
+    out.values_lower = lo;
+    out.values_upper = hi;
   }
   if (solved.scheduler) {
     const choices: Record<string, { from: number; action: string }[]> = {};
