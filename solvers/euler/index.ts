@@ -44,7 +44,7 @@
  * model has choices and the decisions switch at most MAX_SWITCHES times.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import { UNIT_ROUNDOFF as u, clampUnit, goalIndicator, isFrozen, nowSeconds, precisionProblem } from '../shared/numeric.js';
 import { eulerStep, type StepBuffers } from './step.js';
 import { DecisionLog } from './decisions.js';
@@ -55,10 +55,10 @@ const METHOD = 'euler';
 /** `maxWork` replaces the work cap MAX_WORK (steps × moving states and transitions); benchmarks raise it, check lowers it. */
 export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?: number }): Outcome {
   const t0 = nowSeconds();
-  const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
+  const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: METHOD, reason, code });
   const precision = opts.precision;
   const bad = precisionProblem(precision);
-  if (bad) return refuse(bad);
+  if (bad) return refuse(bad, 'invalid-input');
   const T = m.timeBound;
   const S = m.nStates;
 
@@ -88,7 +88,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const lt = lambda * T;
   const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 5 * lt);
   const trunc = precision - roundingFor(MAX_WORK);
-  if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`);
+  if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`, 'precision-floor');
   const h = Math.min(1 / (lambda * (1 + 2 * (d + 2) * u)), trunc / (lambda * lt * (1 + 2 * precision)));
   let nFull = Math.floor(T / h);
   while (nFull > 0 && nFull * h > T) nFull--;
@@ -96,7 +96,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const steps = nFull + (hLast > 0 ? 1 : 0);
   const cap = opts.maxWork ?? MAX_WORK;
   if (steps * work > cap) {
-    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`);
+    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`, 'work-cap');
   }
   const errorBound = lambda * lambda * (nFull * h * h + hLast * hLast) * (1 + 2 * precision) + roundingFor(steps);
 
