@@ -2,11 +2,13 @@
  * An external solver as one more method of `check`: the model is handed over as crossbound/1 JSON,
  * the answer comes back as a result (or a fault), never as an exception.
  */
+import { accessSync, constants, statSync } from 'node:fs';
+import { delimiter, join } from 'node:path';
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
-import { splitTemplate } from '../external/template.js';
+import { checkPlaceholders, splitTemplate, TemplateError } from '../external/template.js';
 import { solvedResult } from './methods.js';
 import type { MethodResult } from './types.js';
 
@@ -32,7 +34,7 @@ export async function runExternalMethod(
   compiled: CompiledModel,
   opts: { precision: number; timeoutMs?: number },
 ): Promise<MethodResult> {
-  const label = solverLabel(template, index);
+  const id = { label: solverLabel(template, index), family: `solver#${index + 1}` as const };
   const out = await runExternal(template, exportJson(model), compiled.stateNames, {
     precision: opts.precision,
     timeBound: model.timeBound,
@@ -40,7 +42,36 @@ export async function runExternalMethod(
   });
   if (out.kind === 'fault') {
     const tail = out.stderrTail?.trim().split('\n').pop();
-    return { label, status: 'fault', fault: out.fault, reason: tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail, seconds: out.seconds };
+    const reason = tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail;
+    return { ...id, status: 'fault', fault: out.fault, reason, seconds: out.seconds };
   }
-  return solvedResult(label, out.solved, opts.precision, out.seconds);
+  return solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+}
+
+/**
+ * Before anything is solved: the template must split and name only known placeholders, and its
+ * command must be startable (an executable file, given by path or found on PATH). Returns the
+ * problem in one line, or undefined. The command is not run.
+ */
+export function solverProblem(template: string): string | undefined {
+  let words: string[];
+  try {
+    words = splitTemplate(template);
+    checkPlaceholders(words);
+  } catch (e) {
+    if (e instanceof TemplateError) return `--solver '${template}': ${e.message}`;
+    throw e;
+  }
+  const cmd = words[0]!;
+  if (/[{}]/.test(cmd)) return `--solver '${template}': the command itself may not be a placeholder`;
+  const candidates = cmd.includes('/') ? [cmd] : (process.env.PATH ?? '').split(delimiter).filter(Boolean).map((d) => join(d, cmd));
+  const runnable = candidates.some((p) => {
+    try {
+      accessSync(p, constants.X_OK);
+      return statSync(p).isFile();
+    } catch {
+      return false;
+    }
+  });
+  return runnable ? undefined : `--solver '${template}': cannot start '${cmd}': ${cmd.includes('/') ? 'no executable file there' : 'not found on PATH'}`;
 }

@@ -76,7 +76,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
     // fast-check calls the property once per run and once per shrink step.
     if (done < opts.runs) opts.onProgress?.(++done, opts.runs);
     const r = await judgeModel(obj, opts);
-    return r.checks.every((c) => c.passed);
+    return r.checks.every((c) => c.status !== 'failed');
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
@@ -88,7 +88,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
     path: out.counterexamplePath ?? '',
     model,
     states: Object.keys(model.states ?? {}).length,
-    failed: final.checks.filter((c) => !c.passed),
+    failed: final.checks.filter((c) => c.status === 'failed'),
   };
   const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${opts.precision.toExponential()} --methods ${opts.methods.join(',') || 'none'}`;
   const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
