@@ -115,13 +115,21 @@ export function familyOfInternal(label: string): Family {
  * exception from any method.
  */
 export function runInternal(label: string, ctx: MethodContext): MethodResult {
+  return runWith({ label, family: familyOfInternal(label) }, ctx, (precision) => solveWith(label, ctx, precision));
+}
+
+/** runInternal with the solving step given (so the rules for retries and faults can be tested on planted outcomes). */
+export function runWith(
+  id: { label: string; family: Family },
+  ctx: { precision: number; oracleDigits: number },
+  solveAt: (precision: number) => Outcome,
+): MethodResult {
   const t0 = performance.now();
-  const id = { label, family: familyOfInternal(label) };
   const retries = id.family !== 'oracle' && id.family !== 'uniformization';
   let precision = ctx.precision;
   try {
     for (;;) {
-      const out = solveWith(label, ctx, precision);
+      const out = solveAt(precision);
       const seconds = (performance.now() - t0) / 1000;
       if (out.kind === 'solved') {
         const ran = id.family === 'oracle' ? 10 ** -ctx.oracleDigits : precision;

@@ -10,7 +10,7 @@ import { brokenSolvers, solverTemplate } from '../fixtures/solvers/index.js';
 import { CLI, crossbound, tempFile } from './cli.js';
 
 interface Report {
-  models: { model: string; checks: { name: string; passed: boolean; detail: string }[]; methods: { label: string; fault?: string }[] }[];
+  models: { model: string; checks: { name: string; status: string; detail: string }[]; methods: { label: string; fault?: string }[] }[];
 }
 
 function checkCorpus(template: string, precision: string, extra: string[] = []): { code: number | null; report: Report } {
@@ -20,7 +20,7 @@ function checkCorpus(template: string, precision: string, extra: string[] = []):
 }
 
 const failedOf = (report: Report): { model: string; name: string; detail: string }[] =>
-  report.models.flatMap((m) => m.checks.filter((c) => !c.passed && c.name.includes('solver:')).map((c) => ({ model: m.model, ...c })));
+  report.models.flatMap((m) => m.checks.filter((c) => c.status === 'failed' && c.name.includes('solver:')).map((c) => ({ model: m.model, ...c })));
 
 describe('broken external solvers are caught on the corpus', () => {
   it("the project's own k-step solver through the external path passes every model (exit 0)", () => {
