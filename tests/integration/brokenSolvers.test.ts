@@ -15,7 +15,7 @@ interface Report {
 
 function checkCorpus(template: string, precision: string, extra: string[] = []): { code: number | null; report: Report } {
   const json = join(dirname(tempFile('r', '')), 'report.json');
-  const r = crossbound(['check', 'corpus/models', '--methods', 'kstep:4,oracle', '--precision', precision, '--solver', template, '--jobs', '2', '--json', json, ...extra], 300_000);
+  const r = crossbound(['check', 'corpus/models', '--methods', 'kstep:4,oracle', '--precision', precision, '--solver', template, '--jobs', '2', '--json', json, ...extra]);
   return { code: r.code, report: JSON.parse(readFileSync(json, 'utf8')) as Report };
 }
 
@@ -51,6 +51,6 @@ describe('broken external solvers are caught on the corpus', () => {
         // Caught against the oracle, the reference much finer than the solver's own precision.
         expect(failed.some((c) => / ~ oracle|oracle ~ /.test(c.name) || c.name.startsWith('expect'))).toBe(true);
       }
-    }, 300_000);
+    });
   }
 });
