@@ -7,7 +7,7 @@ import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, compareRange, compareWithReference, formatRatio } from '../compare/index.js';
-import { runExternalMethod } from './external.js';
+import { runExternalMethod, solverLabel } from './external.js';
 import { failed, ran } from './make.js';
 import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
@@ -49,10 +49,11 @@ export async function checkModel(file: string, model: Model, warnings: string[],
   }
   const repro = (labels: readonly string[]): string => reproduceCommand(file, labels, opts);
   const checks = judge(model, methods, repro);
+  const external = new Map((opts.solvers ?? []).map((template, index) => [solverLabel(template, index), { template, index }]));
   const solve: Solve = async (label, m) => {
-    if (!label.startsWith('solver:')) return runInternal(label, { ...ctx, precision: precisionOf(label), model: m, compiled: compile(m) });
-    const i = Number(label.slice(label.lastIndexOf('#') + 1)) - 1;
-    return runExternalMethod(opts.solvers![i]!, i, m, compile(m), opts);
+    const ext = external.get(label);
+    if (ext) return runExternalMethod(ext.template, ext.index, m, compile(m), opts);
+    return runInternal(label, { ...ctx, precision: precisionOf(label), model: m, compiled: compile(m) });
   };
   for (const m of methods) {
     if (m.status !== 'solved' || m.family === 'oracle') continue;

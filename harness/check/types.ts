@@ -125,12 +125,3 @@ export function shownLabel(m: MethodResult): string {
 export function formatPrecision(p: number): string {
   return p.toExponential().replace(/\.0+e/, 'e').replace('e+', 'e');
 }
-
-/** The family of a method id. */
-export function familyOf(label: string): Family {
-  if (label.startsWith('kstep')) return 'kstep';
-  if (label.startsWith('variant:')) return label as Family;
-  if (label.startsWith('solver:')) return `solver#${Number(label.slice(label.lastIndexOf('#') + 1))}`;
-  if (label === 'uniformization' || label === 'euler' || label === 'oracle' || label === 'defect') return label;
-  throw new Error(`no family for method '${label}'`);
-}
