@@ -7,7 +7,7 @@ import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, compareRange, compareWithReference, formatRatio } from '../compare/index.js';
-import { runExternalMethod, solverLabel } from './external.js';
+import { runExternalMethod, solverLabel, type DefaultBound } from './external.js';
 import { failed, ran } from './make.js';
 import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
@@ -27,6 +27,8 @@ export interface CheckOptions {
   readonly oracleDigits?: number;
   /** Per-method precision overriding `precision` (fuzz runs its reference tighter). */
   readonly methodPrecision?: Readonly<Record<string, number>>;
+  /** The bound of an external result without error_bound (--default-bound). */
+  readonly defaultBound?: DefaultBound;
 }
 
 export { shellQuote } from './reproduce.js';

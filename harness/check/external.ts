@@ -12,6 +12,9 @@ import { checkPlaceholders, splitTemplate, TemplateError } from '../external/tem
 import { solvedResult } from './methods.js';
 import type { MethodResult } from './types.js';
 
+/** `--default-bound`: 'precision' holds a result without error_bound to the precision asked; a number B to B. */
+export type DefaultBound = 'precision' | number;
+
 /** 'solver:NAME#I': NAME is the last path part of the last word before {model} that looks like a file (the script), else of the command. */
 export function solverLabel(template: string, index: number): string {
   let words: string[];
@@ -32,20 +35,23 @@ export async function runExternalMethod(
   index: number,
   model: Model,
   compiled: CompiledModel,
-  opts: { precision: number; timeoutMs?: number },
+  opts: { precision: number; timeoutMs?: number; defaultBound?: DefaultBound },
 ): Promise<MethodResult> {
   const id = { label: solverLabel(template, index), family: `solver#${index + 1}` as const };
   const out = await runExternal(template, exportJson(model), compiled.stateNames, {
     precision: opts.precision,
     timeBound: model.timeBound,
     timeoutMs: opts.timeoutMs ?? 60_000,
+    ...(opts.defaultBound !== undefined ? { defaultBound: opts.defaultBound === 'precision' ? opts.precision : opts.defaultBound } : {}),
   });
+  if (out.kind === 'refused') return { ...id, status: 'refused', code: 'unspecified', reason: out.reason, seconds: out.seconds };
   if (out.kind === 'fault') {
     const tail = out.stderrTail?.trim().split('\n').pop();
     const reason = tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail;
     return { ...id, status: 'fault', fault: out.fault, reason, seconds: out.seconds };
   }
-  return solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+  const solved = solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+  return out.boundAssumed ? { ...solved, boundAssumed: true } : solved;
 }
 
 /**

@@ -9,7 +9,7 @@ export function shellQuote(s: string): string {
 export function reproduceCommand(
   file: string,
   labels: readonly string[],
-  opts: { precision: number; solvers?: readonly string[]; timeoutMs?: number },
+  opts: { precision: number; solvers?: readonly string[]; timeoutMs?: number; defaultBound?: 'precision' | number },
 ): string {
   const templates = (opts.solvers ?? []).map((t, i) => ({ id: solverLabel(t, i), template: t }));
   const external = templates.filter((t) => labels.includes(t.id));
@@ -17,5 +17,6 @@ export function reproduceCommand(
   const parts = ['crossbound', 'check', shellQuote(file), '--precision', opts.precision.toExponential(), '--methods', own.join(',') || 'none'];
   for (const t of external) parts.push('--solver', shellQuote(t.template));
   if (external.length > 0 && opts.timeoutMs !== undefined && opts.timeoutMs !== 60_000) parts.push('--timeout', String(opts.timeoutMs / 1000));
+  if (external.length > 0 && opts.defaultBound !== undefined) parts.push('--default-bound', String(opts.defaultBound));
   return parts.join(' ');
 }

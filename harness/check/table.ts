@@ -24,6 +24,13 @@ export function coarserText(r: ModelReport): string {
   return list.length ? list.map(shownLabel).join(', ') : '-';
 }
 
+/** One line per method whose bound the user assumed (--default-bound), or none. */
+export function assumedBoundNotes(reports: readonly ModelReport[]): string[] {
+  const by = new Map<string, number>();
+  for (const r of reports) for (const m of r.methods) if (m.status === 'solved' && m.boundAssumed) by.set(m.label, (by.get(m.label) ?? 0) + 1);
+  return [...by].map(([label, n]) => `${label}: no error_bound; the bound used on ${n} model(s) is the user's --default-bound, not a claim of the solver`);
+}
+
 const VERDICT_SHOWN = { pass: 'pass', fail: 'FAIL', unchecked: 'UNCHECKED' } as const;
 
 export interface TableOptions {
@@ -51,6 +58,8 @@ export function formatCheckReport(reports: readonly ModelReport[], opts: TableOp
   });
   const header = ['model', 'kind', 'states', 'λT', 'solved', 'ran coarser', 'initial value (tightest bound)', 'worst |Δ|/allowed', 'verdict'];
   const out = [formatTable(header, rows)];
+  const notes = assumedBoundNotes(reports);
+  if (notes.length > 0) out.push('', 'Bounds assumed by the user (marked [bound assumed]):', ...notes.map((n) => `  ${n}`));
   const auditText = formatAudit(reports);
   if (auditText) out.push('', auditText);
   const unchecked = reports.filter((r) => modelVerdict(r) === 'unchecked');

@@ -37,6 +37,8 @@ export interface SolvedMethod extends MethodBase {
   readonly stats?: Record<string, number>;
   /** The strategy the method returned, if any (elapsed-time segments per owned state). */
   readonly scheduler?: { choices: Record<string, { from: number; action: string }[]> };
+  /** The solver gave no error_bound: `errorBound` is the user's --default-bound, not the solver's claim. */
+  readonly boundAssumed?: true;
 }
 
 export interface RefusedMethod extends MethodBase {
@@ -117,9 +119,14 @@ export function uncheckedReason(r: ModelReport): string {
   return 'no comparison of two independent families ran';
 }
 
-/** A method's label as shown: with '@precision' when it ran coarser than requested. */
+/**
+ * A method's label as shown: with '@precision' when it ran coarser than requested, and '[bound assumed]'
+ * when its bound is the user's --default-bound.
+ */
 export function shownLabel(m: MethodResult): string {
-  return m.status === 'solved' && m.precision !== m.requestedPrecision ? `${m.label}@${formatPrecision(m.precision)}` : m.label;
+  if (m.status !== 'solved') return m.label;
+  const at = m.precision !== m.requestedPrecision ? `@${formatPrecision(m.precision)}` : '';
+  return `${m.label}${at}${m.boundAssumed ? '[bound assumed]' : ''}`;
 }
 
 export function formatPrecision(p: number): string {

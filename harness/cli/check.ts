@@ -8,7 +8,15 @@ import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
+import { UsageError } from './errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
+
+function parseDefaultBound(text: string): 'precision' | number {
+  if (text === 'precision') return 'precision';
+  const b = Number(text);
+  if (text.trim() === '' || !(Number.isFinite(b) && b >= 0 && b < 1)) throw new UsageError(`--default-bound must be 'precision' or a number in [0, 1) (got '${text}')`);
+  return b;
+}
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
 
@@ -24,6 +32,7 @@ interface CheckCliOptions {
   oracleDigits: string;
   jobs: string;
   allowUnchecked: boolean;
+  defaultBound?: string;
 }
 
 export function registerCheck(program: Command, setExit: SetExit): void {
@@ -41,6 +50,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--report <file>', 'write the self-contained HTML qualification report')
     .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
     .option('--jobs <n>', 'worker threads', String(availableParallelism()))
+    .option('--default-bound <precision|B>', "bound of an external result without error_bound: the precision asked of it ('precision'), or B; marked as assumed")
     .option('--allow-unchecked', 'models where nothing independent was compared do not make the exit code 1', false)
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
@@ -54,8 +64,10 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         : undefined;
       let started = false;
       const allowUnchecked = o.allowUnchecked;
+      const defaultBound = o.defaultBound === undefined ? undefined : parseDefaultBound(o.defaultBound);
       const { reports, exitCode, coverage } = await runCheck(paths, {
         allowUnchecked,
+        ...(defaultBound !== undefined ? { defaultBound } : {}),
         precision,
         methods,
         solvers: o.solver,

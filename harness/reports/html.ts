@@ -8,7 +8,7 @@ import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import { auditSummary } from '../check/table.js';
 import { formatRatio } from '../compare/index.js';
 import { commonFailingMethod, summarize } from '../check/summary.js';
-import { coarserText } from '../check/table.js';
+import { assumedBoundNotes, coarserText } from '../check/table.js';
 import { modelVerdict, uncheckedReason, type ModelReport, type SolvedMethod } from '../check/types.js';
 import { errorPlot, logLogSlope, measureConvergence, measureValueCurve, svgOf, timePlot, valuePlot } from './plots.js';
 
@@ -122,6 +122,7 @@ table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding
 <p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${esc(headline)}</p>
 <p class="caution">${esc(CAUTION)}</p>
 <h2>Corpus coverage</h2><p>${esc(kinds)}; goal modes: ${reports.filter((r) => r.goalMode === 'within').length} within, ${reports.filter((r) => r.goalMode === 'at').length} at.</p>${coverage}
+${assumedBoundNotes(reports).map((n) => `<p class="caution">Assumed bound: ${esc(n)}</p>`).join('')}
 <h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one.</p>${auditHtml}
 <h2>Disagreements and failed checks</h2>${failuresSection(reports)}
 <h2>Unchecked models</h2>${uncheckedSection(reports)}

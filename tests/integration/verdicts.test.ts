@@ -8,7 +8,7 @@ import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { crossbound, expectOneLineError, tempFile } from './cli.js';
+import { CLI, crossbound, expectOneLineError, tempFile } from './cli.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'crossbound-verdicts-'));
 const out = (name: string): string => join(dir, name);
@@ -141,5 +141,39 @@ describe('merge', () => {
     const r = crossbound(['merge', s1, s2, '--json', out('m.json')]);
     expect(r.code).toBe(0);
     expect(json(out('m.json'))).toMatchObject({ verdict: 'pass', counts: { models: 2, pass: 2 }, shard: { index: 1, count: 1 } });
+  });
+});
+
+describe('external solvers that refuse, or give no bound', () => {
+  const script = (name: string, body: string): string => tempFile(name, body);
+  // Prints the project's own k-step result without its error_bound.
+  const noBound = script('nobound.mjs', `
+import { execFileSync } from 'node:child_process';
+const r = JSON.parse(execFileSync(process.execPath, [${JSON.stringify(CLI)}, 'solve', process.argv[2], '--method', 'kstep', '--precision', process.argv[3], '--json'], { encoding: 'utf8' }));
+delete r.error_bound;
+process.stdout.write(JSON.stringify(r));
+`);
+  const refuses = script('refuses.mjs', `process.stdout.write(JSON.stringify({ format: 'crossbound-result/1', method: 'refuser', refused: 'not supported here' }));\n`);
+  const tpl = (f: string): string => `'${process.execPath}' '${f}' {model} {precision}`;
+  it('no error_bound is a fault (exit 1) without --default-bound', () => {
+    const r = crossbound(['check', KETTLE, '--methods', 'oracle', '--solver', tpl(noBound)]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/fault solver:nobound\.mjs#1: no-bound: `error_bound` is missing/);
+  });
+  it('--default-bound precision holds it to the precision asked, marked as assumed in the table, JSON and JUnit', () => {
+    const r = crossbound(['check', KETTLE, '--methods', 'oracle', '--solver', tpl(noBound), '--default-bound', 'precision', '--json', out('d.json'), '--junit', out('d.xml')]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/solver:nobound\.mjs#1: no error_bound; the bound used on 1 model\(s\) is the user's --default-bound/);
+    const m = json(out('d.json')).models[0].methods.find((x: { label: string }) => x.label === 'solver:nobound.mjs#1');
+    expect(m).toMatchObject({ status: 'solved', boundAssumed: true, errorBound: 1e-6 });
+    expect(readFileSync(out('d.xml'), 'utf8')).toMatch(/name="agree oracle ~ solver:nobound\.mjs#1\[bound assumed\]"/);
+  });
+  it('a refusal is recorded as a refusal, not a fault; alone it leaves the model unchecked', () => {
+    const r = crossbound(['check', KETTLE, '--methods', 'none', '--solver', tpl(refuses), '--json', out('r.json')]);
+    expect(r.code).toBe(1);
+    const m = json(out('r.json')).models[0];
+    expect(m.methods[0]).toMatchObject({ status: 'refused', code: 'unspecified', reason: 'not supported here' });
+    expect(m.checks).toEqual([]);
+    expect(m.verdict).toBe('unchecked');
   });
 });
