@@ -50,7 +50,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--report <file>', 'write the self-contained HTML qualification report')
     .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
     .option('--jobs <n>', 'worker threads', String(availableParallelism()))
-    .option('--default-bound <precision|B>', "bound of an external result without error_bound: the precision asked of it ('precision'), or B; marked as assumed")
+    .option('--default-bound <b>', "bound of an external result without error_bound: 'precision' (the precision asked of it) or a number; marked as assumed")
     .option('--allow-unchecked', 'models where nothing independent was compared do not make the exit code 1', false)
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
