@@ -89,49 +89,58 @@ export async function checkModel(file: string, model: Model, warnings: string[],
 
 const answer = (m: SolvedMethod) => ({ label: m.label, values: m.values, bound: m.errorBound });
 
-function judge(model: Model, methods: readonly MethodResult[], repro: (labels: readonly string[]) => string): CheckResult[] {
-  const checks: CheckResult[] = [];
+type Repro = (labels: readonly string[]) => string;
+
+function judge(model: Model, methods: readonly MethodResult[], repro: Repro): CheckResult[] {
   const withRepro = (c: CheckResult): CheckResult => (c.status === 'failed' ? { ...c, reproduce: repro(c.methods) } : c);
   const names = model.states.map((s) => s.name);
   const solved = methods.filter((m): m is SolvedMethod => m.status === 'solved');
+  const checks: CheckResult[] = [];
   for (const m of methods) {
     if (m.status !== 'fault') continue;
-    checks.push(withRepro(failed({ kind: 'fault', name: `fault ${m.label}`, methods: [m.label], independent: false }, `${m.fault}: ${m.reason}`)));
+    const head = { kind: 'fault' as const, name: `fault ${m.label}`, methods: [m.label], independent: false };
+    checks.push(failed(head, `${m.fault}: ${m.reason}`));
   }
-  for (const m of solved) {
-    const c = compareRange(answer(m));
-    const s = c.worstState;
-    checks.push(withRepro(ran({ kind: 'range', name: `range ${shownLabel(m)}`, methods: [m.label], independent: false }, c, c.agree
-      ? 'every value in [0, 1] up to its bound'
-      : `state ${names[s]}: value ${m.values[s]} outside [0, 1] by more than its bound ${m.errorBound}`)));
+  for (const m of solved) checks.push(rangeCheck(names, m));
+  for (let i = 0; i < solved.length; i++) for (let j = i + 1; j < solved.length; j++) checks.push(agreeCheck(names, solved[i]!, solved[j]!));
+  if (model.expect) for (const m of solved) checks.push(expectCheck(names, model.expect, m));
+  return checks.map(withRepro);
+}
+
+function rangeCheck(names: readonly string[], m: SolvedMethod): CheckResult {
+  const c = compareRange(answer(m));
+  const s = c.worstState;
+  const head = { kind: 'range' as const, name: `range ${shownLabel(m)}`, methods: [m.label], independent: false };
+  return ran(head, c, c.agree
+    ? 'every value in [0, 1] up to its bound'
+    : `state ${names[s]}: value ${m.values[s]} outside [0, 1] by more than its bound ${m.errorBound}`);
+}
+
+/** Two answers within the sum of their bounds; independent evidence only across families. */
+function agreeCheck(names: readonly string[], a: SolvedMethod, b: SolvedMethod): CheckResult {
+  const c = compareAnswers(answer(a), answer(b));
+  const s = c.worstState;
+  const independent = a.family !== b.family;
+  const head = { kind: 'agree' as const, name: `agree ${shownLabel(a)} ~ ${shownLabel(b)}`, methods: [a.label, b.label], independent };
+  const e = (x: number, d: number): string => x.toExponential(d);
+  if (c.agree) {
+    const family = independent ? '' : `; both of family ${a.family}, not independent`;
+    return ran(head, c, `worst state ${names[s] ?? '-'}: |difference| ${e(c.difference, 2)} ≤ allowed ${e(c.allowed, 2)} ` +
+      `(ratio ${formatRatio(c.ratio)})${family}`);
   }
-  for (let i = 0; i < solved.length; i++) {
-    for (let j = i + 1; j < solved.length; j++) {
-      const a = solved[i]!;
-      const b = solved[j]!;
-      const c = compareAnswers(answer(a), answer(b));
-      const s = names[c.worstState] ?? '-';
-      const independent = a.family !== b.family;
-      const head = { kind: 'agree' as const, name: `agree ${shownLabel(a)} ~ ${shownLabel(b)}`, methods: [a.label, b.label], independent };
-      checks.push(withRepro(ran(head, c, c.agree
-        ? `worst state ${s}: |difference| ${c.difference.toExponential(2)} ≤ allowed ${c.allowed.toExponential(2)} (ratio ${formatRatio(c.ratio)})` +
-          (independent ? '' : `; both of family ${a.family}, not independent`)
-        : `state ${s}: ${a.label} = ${a.values[c.worstState]}, ${b.label} = ${b.values[c.worstState]}, |difference| ` +
-          `${c.difference.toExponential(3)} > allowed ${c.allowed.toExponential(3)} (bounds ${a.errorBound.toExponential(2)} + ${b.errorBound.toExponential(2)})`)));
-    }
-  }
-  if (model.expect) {
-    const exp = model.expect;
-    const entries = Object.entries(exp.values);
-    const ref = { label: 'expect', states: entries.map(([state]) => names.indexOf(state)), values: entries.map(([, t]) => Number(t)), tolerance: exp.tolerance };
-    for (const m of solved) {
-      const c = compareWithReference(answer(m), ref);
-      const s = c.worstState;
-      const head = { kind: 'expect' as const, name: `expect ${shownLabel(m)}`, methods: [m.label], independent: true };
-      checks.push(withRepro(ran(head, c, c.agree
-        ? `matches ${entries.length} expected value(s) (${exp.source}; ratio ${formatRatio(c.ratio)})`
-        : `state ${names[s]}: ${m.values[s]} vs expected ${exp.values[names[s]!]}, |difference| ${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`)));
-    }
-  }
-  return checks;
+  return ran(head, c, `state ${names[s] ?? '-'}: ${a.label} = ${a.values[s]}, ${b.label} = ${b.values[s]}, ` +
+    `|difference| ${e(c.difference, 3)} > allowed ${e(c.allowed, 3)} (bounds ${e(a.errorBound, 2)} + ${e(b.errorBound, 2)})`);
+}
+
+/** An answer against the file's reference values (a reference: independent evidence). */
+function expectCheck(names: readonly string[], exp: NonNullable<Model['expect']>, m: SolvedMethod): CheckResult {
+  const entries = Object.entries(exp.values);
+  const ref = { label: 'expect', states: entries.map(([st]) => names.indexOf(st)), values: entries.map(([, t]) => Number(t)), tolerance: exp.tolerance };
+  const c = compareWithReference(answer(m), ref);
+  const s = c.worstState;
+  const head = { kind: 'expect' as const, name: `expect ${shownLabel(m)}`, methods: [m.label], independent: true };
+  return ran(head, c, c.agree
+    ? `matches ${entries.length} expected value(s) (${exp.source}; ratio ${formatRatio(c.ratio)})`
+    : `state ${names[s]}: ${m.values[s]} vs expected ${exp.values[names[s]!]}, ` +
+      `|difference| ${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`);
 }

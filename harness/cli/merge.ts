@@ -28,13 +28,25 @@ function readReport(file: string): CheckJson {
     throw new UsageError(`${file}: not a readable JSON file (${(e as Error).message.split('\n')[0]})`);
   }
   const r = data as CheckJson;
-  if (!r || r.format !== 'crossbound-check/1' || !Array.isArray(r.models)) throw new UsageError(`${file}: not a check report of format crossbound-check/1`);
-  const ok = r.shard && Number.isInteger(r.shard.index) && Number.isInteger(r.shard.count) && r.corpus && typeof r.corpus.digest === 'string' && Array.isArray(r.files);
-  if (!ok) throw new UsageError(`${file}: the report carries no shard, corpus or file list (written by an older crossbound?)`);
+  if (!r || r.format !== 'crossbound-check/1' || !Array.isArray(r.models)) {
+    throw new UsageError(`${file}: not a check report of format crossbound-check/1`);
+  }
+  const shardOk = r.shard && Number.isInteger(r.shard.index) && Number.isInteger(r.shard.count);
+  if (!shardOk || !r.corpus || typeof r.corpus.digest !== 'string' || !Array.isArray(r.files)) {
+    throw new UsageError(`${file}: the report carries no shard, corpus or file list (written by an older crossbound?)`);
+  }
   return r;
 }
 
-export function mergeReports(files: readonly string[]): { precision: number; models: ModelReport[]; corpus: CheckJson['corpus']; all: string[] } {
+export interface Merged {
+  readonly precision: number;
+  readonly models: ModelReport[];
+  readonly corpus: CheckJson['corpus'];
+  /** Every model file of the corpus, sorted. */
+  readonly all: string[];
+}
+
+export function mergeReports(files: readonly string[]): Merged {
   const reports = files.map((f) => ({ f, r: readReport(f) }));
   const first = reports[0]!;
   const count = first.r.shard.count;
@@ -42,7 +54,9 @@ export function mergeReports(files: readonly string[]): { precision: number; mod
   const seen = new Map<string, string>();
   const models: ModelReport[] = [];
   for (const { f, r } of reports) {
-    if (r.precision !== first.r.precision) throw new UsageError(`${f}: precision ${r.precision} differs from ${first.r.precision} of ${first.f}`);
+    if (r.precision !== first.r.precision) {
+      throw new UsageError(`${f}: precision ${r.precision} differs from ${first.r.precision} of ${first.f}`);
+    }
     if (r.corpus.digest !== first.r.corpus.digest) throw new MergeRefused(`${f} checked another corpus than ${first.f} (file lists differ)`);
     if (r.shard.count !== count) throw new MergeRefused(`${f} is shard ${r.shard.index}/${r.shard.count}, ${first.f} is of ${count} shards`);
     const other = byShard.get(r.shard.index);
@@ -56,14 +70,18 @@ export function mergeReports(files: readonly string[]): { precision: number; mod
     models.push(...r.models.map(({ verdict: _v, ...m }) => m as ModelReport));
   }
   const missing = Array.from({ length: count }, (_, i) => i + 1).filter((i) => !byShard.has(i));
-  if (missing.length > 0) throw new MergeRefused(`incomplete shard set: missing shard(s) ${missing.map((i) => `${i}/${count}`).join(', ')}`);
+  if (missing.length > 0) {
+    throw new MergeRefused(`incomplete shard set: missing shard(s) ${missing.map((i) => `${i}/${count}`).join(', ')}`);
+  }
   const all = [...seen.keys()].sort();
   if (all.length !== first.r.corpus.files || digestFiles(all) !== first.r.corpus.digest) {
-    throw new MergeRefused(`incomplete shard set: the reports list ${all.length} model file(s), the corpus has ${first.r.corpus.files}`);
+    throw new MergeRefused(`incomplete shard set: the reports list ${all.length} model file(s), the corpus ${first.r.corpus.files}`);
   }
   const reported = new Set(models.map((m) => m.file));
   const unreported = all.filter((f) => !reported.has(f));
-  if (unreported.length > 0) throw new MergeRefused(`incomplete reports: no result for ${unreported.length} model file(s), e.g. ${unreported[0]}`);
+  if (unreported.length > 0) {
+    throw new MergeRefused(`incomplete reports: no result for ${unreported.length} model file(s), e.g. ${unreported[0]}`);
+  }
   models.sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0));
   return { precision: first.r.precision, models, corpus: first.r.corpus, all };
 }
@@ -71,7 +89,7 @@ export function mergeReports(files: readonly string[]): { precision: number; mod
 export function registerMerge(program: Command, setExit: SetExit): void {
   program
     .command('merge')
-    .description('merge the --json reports of all shards of one check into one report and one verdict (refuses an incomplete or overlapping set)')
+    .description('merge the --json reports of all shards of one check into one verdict (refuses an incomplete or overlapping set)')
     .argument('<reports...>', 'JSON reports written by check --json')
     .option('--json <file>', 'write the merged report as JSON')
     .option('--junit <file>', 'write the merged report as JUnit XML')
