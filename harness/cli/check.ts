@@ -88,7 +88,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       const emptyShard = reports.length === 0 ? { ...coverage.shard, corpusFiles: coverage.corpusFiles } : undefined;
       process.stdout.write(`${formatCheckReport(reports, { allowUnchecked, ...(emptyShard ? { emptyShard } : {}) })}\n`);
       if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, coverage, allowUnchecked), null, 1)}\n`);
-      if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked }));
+      if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard }));
       if (o.report) {
         // Loaded on demand: the plotting library is large and only the report needs it.
         const { htmlReport } = await import('../reports/html.js');

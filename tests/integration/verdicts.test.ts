@@ -23,8 +23,9 @@ describe('what check is given', () => {
     expect(line).toMatch(/no model file .* found/);
     expect(existsSync(out('none.json'))).toBe(false);
   });
-  it('an empty shard of a non-empty corpus exits 0 and claims nothing (verdict empty, not pass)', () => {
-    const r = crossbound(['check', KETTLE, '--shard', '2/2', '--json', out('empty.json')]);
+  it('an empty shard of a non-empty corpus exits 0 and claims nothing (verdict empty, not pass; JUnit one skipped case)', () => {
+    const r = crossbound(['check', KETTLE, '--shard', '2/2', '--json', out('empty.json'), '--junit', out('empty.xml')]);
+    expect(readFileSync(out('empty.xml'), 'utf8')).toMatch(/<testsuites tests="1" failures="0" errors="0" skipped="1">/);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/shard 2\/2 holds no model \(1 model file\(s\) in all\): nothing checked, nothing claimed/);
     expect(r.stdout).not.toMatch(/pass/);
@@ -136,6 +137,15 @@ describe('merge', () => {
     const other = out('other.json');
     crossbound(['check', KETTLE, '--methods', 'kstep:3,oracle', '--shard', '2/2', '--json', other]);
     expect(crossbound(['merge', s1, other]).stderr).toMatch(/another corpus/);
+  });
+  it('a complete set that includes an empty shard merges', () => {
+    const a = out('e1.json');
+    const b = out('e2.json');
+    crossbound(['check', KETTLE, '--methods', 'kstep:3', '--shard', '1/2', '--json', a]);
+    crossbound(['check', KETTLE, '--methods', 'kstep:3', '--shard', '2/2', '--json', b]);
+    const r = crossbound(['merge', b, a, '--json', out('em.json')]);
+    expect(r.code).toBe(0);
+    expect(json(out('em.json'))).toMatchObject({ verdict: 'pass', counts: { models: 1, pass: 1 } });
   });
   it('merges a complete set into one verdict, the same as one run', () => {
     const r = crossbound(['merge', s1, s2, '--json', out('m.json')]);
