@@ -25,11 +25,23 @@ export interface Solved {
   readonly stats: Readonly<Record<string, number>>;
 }
 
+/**
+ * Why a method refused, for the harness to act on without reading the prose:
+ *  - invalid-input:   a parameter out of range (k, precision, digits, time bound);
+ *  - out-of-scope:    the method does not apply to this model (choices without a scheduler, too many states);
+ *  - work-cap:        the request needs more work than the method's cap (a coarser precision needs less);
+ *  - precision-floor: the request is too close to what rounding or the confirmable digits allow;
+ *  - internal:        the method's own self-check failed (a fault of the method, not a refusal to judge).
+ */
+export type RefusalCode = 'invalid-input' | 'out-of-scope' | 'work-cap' | 'precision-floor' | 'internal';
+
 /** The method does not apply, or cannot meet the request honestly. */
 export interface Refused {
   readonly kind: 'refused';
   readonly method: Method;
   readonly reason: string;
+  /** Absent: not classified (treated like out-of-scope: no retry). */
+  readonly code?: RefusalCode;
 }
 
 export type Outcome = Solved | Refused;

@@ -40,7 +40,7 @@
  * or a bound above the precision. Returns the decisions of every step as a scheduler.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import { gamma } from '../piecewise/poly.js';
 import { scaleTime } from '../shared/scale.js';
 import { clampUnit, goalIndicator, nowSeconds, precisionProblem, UNIT_ROUNDOFF } from '../shared/numeric.js';
@@ -61,17 +61,17 @@ const METHOD = 'defect';
 
 export function solveDefect(model: CompiledModel, opts: DefectOptions): Outcome {
   const t0 = nowSeconds();
-  const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
+  const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: METHOD, reason, code });
   const bad = precisionProblem(opts.precision);
-  if (bad) return refuse(bad);
+  if (bad) return refuse(bad, 'invalid-input');
   const K = opts.degree ?? 12;
-  if (!Number.isInteger(K) || K < 1 || K > 30) return refuse(`degree must be an integer from 1 to 30, got ${K}`);
+  if (!Number.isInteger(K) || K < 1 || K > 30) return refuse(`degree must be an integer from 1 to 30, got ${K}`, 'invalid-input');
   const S = model.nStates;
   const frozen = new Uint8Array(S);
   let lambda = 0;
   for (let s = 0; s < S; s++) {
     const nA = model.actionStart[s + 1]! - model.actionStart[s]!;
-    if (nA >= 2 && model.owner[s] === 0) return refuse(`state '${model.stateNames[s]}' has a choice and no owner`);
+    if (nA >= 2 && model.owner[s] === 0) return refuse(`state '${model.stateNames[s]}' has a choice and no owner`, 'invalid-input');
     if (nA === 0 || (model.goalMode === 'within' && model.goal[s])) frozen[s] = 1;
     else for (let a = model.actionStart[s]!; a < model.actionStart[s + 1]!; a++) lambda = Math.max(lambda, model.exitRate[a]!);
   }
@@ -82,13 +82,13 @@ export function solveDefect(model: CompiledModel, opts: DefectOptions): Outcome 
     return { kind: 'solved', method: METHOD, params, values: v, errorBound: 0, valuesLower: v, valuesUpper: v, stats: { steps: 0, seconds: nowSeconds() - t0 } };
   }
   const scaled = scaleTime(model, lambda, frozen);
-  if ('refused' in scaled) return refuse(scaled.refused);
+  if ('refused' in scaled) return refuse(scaled.refused, 'out-of-scope');
   const m = scaled.m;
   const T = m.timeBound;
   const lam = lambda * scaled.c;
   const inputs = 3 * UNIT_ROUNDOFF * lam * T * (1 + 1e-12) + scaled.flushBound;
   const budget = 0.9 * opts.precision - inputs;
-  if (!(budget > 0)) return refuse(`precision ${opts.precision} is below the input rounding allowance ${inputs}`);
+  if (!(budget > 0)) return refuse(`precision ${opts.precision} is below the input rounding allowance ${inputs}`, 'precision-floor');
   const rateTarget = budget / T;
 
   const w = new Work(m, K, frozen);
@@ -106,8 +106,8 @@ export function solveDefect(model: CompiledModel, opts: DefectOptions): Outcome 
   const perAttempt = (K + 1) * (m.nStates + m.nTransitions);
   while (t < T) {
     if (T - t < h) h = T - t;
-    if (++attempts > maxSteps) return refuse(`more than ${maxSteps} step attempts (λT = ${lam * T})`);
-    if (attempts * perAttempt > maxWork) return refuse(`work cap ${maxWork} reached after ${steps} steps at time left ${t * scaled.c} of ${model.timeBound}`);
+    if (++attempts > maxSteps) return refuse(`more than ${maxSteps} step attempts (λT = ${lam * T})`, 'work-cap');
+    if (attempts * perAttempt > maxWork) return refuse(`work cap ${maxWork} reached after ${steps} steps at time left ${t * scaled.c} of ${model.timeBound}`, 'work-cap');
     w.decide(x);
     w.taylor(x);
     const { plus, minus } = w.defect(h);
@@ -116,7 +116,7 @@ export function solveDefect(model: CompiledModel, opts: DefectOptions): Outcome 
     if (worst > rateTarget) {
       const taylorH = est > 0 ? h * Math.min(0.9, 0.9 * Math.pow(rateTarget / (est * h ** K), 1 / K)) : h / 2;
       h = Math.min(h / 2, Math.max(taylorH, h / 16));
-      if (!(h > 0) || t + h === t) return refuse(`the step length underflowed at time left ${t * scaled.c}`);
+      if (!(h > 0) || t + h === t) return refuse(`the step length underflowed at time left ${t * scaled.c}`, 'precision-floor');
       continue;
     }
     intPlus += h * plus;
@@ -134,8 +134,8 @@ export function solveDefect(model: CompiledModel, opts: DefectOptions): Outcome 
   const lowerDev = intPlus + jumps + inputs; // f − v ≤ this
   const upperDev = intMinus + jumps + inputs; // v − f ≤ this
   const errorBound = Math.max(lowerDev, upperDev) * (1 + 1e-9);
-  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
-  if (errorBound > opts.precision) return refuse(`the certified bound ${errorBound} is above the precision ${opts.precision}`);
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`, 'precision-floor');
+  if (errorBound > opts.precision) return refuse(`the certified bound ${errorBound} is above the precision ${opts.precision}`, 'precision-floor');
   const valuesLower = new Float64Array(S);
   const valuesUpper = new Float64Array(S);
   for (let s = 0; s < S; s++) {

@@ -4,7 +4,7 @@
  * (R. T. Farouki, "The Bernstein polynomial basis: a centennial retrospective", CAGD 2012: the
  * Bernstein coefficients of x^n on [0, 1] are 0, …, 0, 1).
  */
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { bernsteinEnclosure, bernsteinWeights, polyRange } from '../../../solvers/defect/range.js';

@@ -44,7 +44,7 @@ describe('certified trajectories', () => {
       }
       // A cubic Hermite on 40 steps: a bound below 1e-3 (measured 1e-5 … 4e-4; 2e-6 … 6e-6 with 400 steps).
       expect(cert.errorBound).toBeLessThan(1e-3);
-      const bad = { timeLeft: tr.timeLeft, values: tr.values.map((v, i) => (i === 20 ? v.map((x) => Math.min(1, x + 1e-3)) : v)) };
+      const bad = { timeLeft: tr.timeLeft, values: tr.values.map((v, i) => (i === 20 ? Float64Array.from(v, (x) => Math.min(1, x + 1e-3)) : v)) };
       const c2 = certifyTrajectory(m, bad);
       if ('refused' in c2) throw new Error(c2.refused);
       expect(c2.errorBound).toBeGreaterThan(cert.errorBound);
