@@ -3,8 +3,10 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['tests/**/*.test.ts'],
-    testTimeout: 60_000,
-    hookTimeout: 120_000,
+    // Limits against hangs only (no test may depend on speed): above the limit of one CLI child
+    // (tests/integration/cli.ts), so a killed child is reported with its signal first.
+    testTimeout: 30 * 60_000,
+    hookTimeout: 30 * 60_000,
     pool: 'forks',
   },
 });

@@ -1,15 +1,18 @@
 /**
  * Check one model: solve it with every applicable method and external solver, then judge the
- * answers by named checks, each through the one comparator (harness/compare).
+ * answers by named checks, each through the one comparator (harness/compare). A check between two
+ * answers of one family (kstep:2 against kstep:4) is run but is not independent evidence.
  */
 import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
-import { compareAnswers, withinTolerance } from '../compare/index.js';
-import { runExternalMethod } from './external.js';
+import { compareAnswers, compareRange, compareWithReference, formatRatio } from '../compare/index.js';
+import { runExternalMethod, solverLabel, type DefaultBound } from './external.js';
+import { failed, ran } from './make.js';
 import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
-import type { CheckResult, MethodResult, ModelReport } from './types.js';
+import { reproduceCommand } from './reproduce.js';
+import { shownLabel, type CheckResult, type MethodResult, type ModelReport, type SolvedMethod } from './types.js';
 
 /** The own method that also runs the metamorphic relations (fast and order 3). */
 export const METAMORPHIC_METHOD = 'kstep:3';
@@ -24,25 +27,11 @@ export interface CheckOptions {
   readonly oracleDigits?: number;
   /** Per-method precision overriding `precision` (fuzz runs its reference tighter). */
   readonly methodPrecision?: Readonly<Record<string, number>>;
+  /** The bound of an external result without error_bound (--default-bound). */
+  readonly defaultBound?: DefaultBound;
 }
 
-export function shellQuote(s: string): string {
-  return /^[A-Za-z0-9_./:=,+-]+$/.test(s) ? s : `'${s.replace(/'/g, `'\\''`)}'`;
-}
-
-function reproduce(file: string, labels: readonly string[], opts: CheckOptions): string {
-  const parts = ['crossbound', 'check', shellQuote(file), '--precision', opts.precision.toExponential()];
-  const own = labels.filter((l) => !l.startsWith('solver:'));
-  if (own.length > 0) parts.push('--methods', own.join(','));
-  else parts.push('--methods', 'none');
-  for (const l of labels) {
-    if (!l.startsWith('solver:')) continue;
-    const i = Number(l.split('#')[1] ?? 1) - 1;
-    const t = opts.solvers?.[i];
-    if (t !== undefined) parts.push('--solver', shellQuote(t));
-  }
-  return parts.join(' ');
-}
+export { shellQuote } from './reproduce.js';
 
 export async function checkModel(file: string, model: Model, warnings: string[], opts: CheckOptions): Promise<ModelReport> {
   const compiled = compile(model);
@@ -60,24 +49,25 @@ export async function checkModel(file: string, model: Model, warnings: string[],
   for (const [i, template] of (opts.solvers ?? []).entries()) {
     methods.push(await runExternalMethod(template, i, model, compiled, opts));
   }
-  const checks = judge(file, model, methods, opts);
+  const repro = (labels: readonly string[]): string => reproduceCommand(file, labels, opts);
+  const checks = judge(model, methods, repro);
+  const external = new Map((opts.solvers ?? []).map((template, index) => [solverLabel(template, index), { template, index }]));
   const solve: Solve = async (label, m) => {
-    if (!label.startsWith('solver:')) return runInternal(label, { ...ctx, precision: precisionOf(label), model: m, compiled: compile(m) });
-    const i = Number(label.split('#')[1]) - 1;
-    return runExternalMethod(opts.solvers![i]!, i, m, compile(m), opts);
+    const ext = external.get(label);
+    if (ext) return runExternalMethod(ext.template, ext.index, m, compile(m), opts);
+    return runInternal(label, { ...ctx, precision: precisionOf(label), model: m, compiled: compile(m) });
   };
   for (const m of methods) {
-    if (m.status !== 'solved' || m.label === 'oracle') continue;
-    const labels = [m.label];
+    if (m.status !== 'solved' || m.family === 'oracle') continue;
+    const own: CheckResult[] = [];
     const mono = await monotoneInT(model, m, solve);
-    if (mono) checks.push(withRepro(mono, file, labels, opts));
+    if (mono) own.push(mono);
     const dom = dominance(model, m);
-    if (dom) checks.push(withRepro(dom, file, labels, opts));
+    if (dom) own.push(dom);
     const strat = strategyValue(model, m);
-    if (strat) checks.push(withRepro(strat, file, labels, opts));
-    if (m.label === METAMORPHIC_METHOD || m.label.startsWith('solver:')) {
-      for (const c of await metamorphic(model, m, solve)) checks.push(withRepro(c, file, labels, opts));
-    }
+    if (strat) own.push(strat);
+    if (m.label === METAMORPHIC_METHOD || m.family.startsWith('solver#')) own.push(...(await metamorphic(model, m, solve)));
+    for (const c of own) checks.push(c.status === 'failed' ? { ...c, reproduce: repro(c.methods) } : c);
   }
   return {
     file,
@@ -97,72 +87,60 @@ export async function checkModel(file: string, model: Model, warnings: string[],
   };
 }
 
-function withRepro(c: CheckResult, file: string, labels: readonly string[], opts: CheckOptions): CheckResult {
-  return c.passed ? c : { ...c, reproduce: reproduce(file, labels, opts) };
+const answer = (m: SolvedMethod) => ({ label: m.label, values: m.values, bound: m.errorBound });
+
+type Repro = (labels: readonly string[]) => string;
+
+function judge(model: Model, methods: readonly MethodResult[], repro: Repro): CheckResult[] {
+  const withRepro = (c: CheckResult): CheckResult => (c.status === 'failed' ? { ...c, reproduce: repro(c.methods) } : c);
+  const names = model.states.map((s) => s.name);
+  const solved = methods.filter((m): m is SolvedMethod => m.status === 'solved');
+  const checks: CheckResult[] = [];
+  for (const m of methods) {
+    if (m.status !== 'fault') continue;
+    const head = { kind: 'fault' as const, name: `fault ${m.label}`, methods: [m.label], independent: false };
+    checks.push(failed(head, `${m.fault}: ${m.reason}`));
+  }
+  for (const m of solved) checks.push(rangeCheck(names, m));
+  for (let i = 0; i < solved.length; i++) for (let j = i + 1; j < solved.length; j++) checks.push(agreeCheck(names, solved[i]!, solved[j]!));
+  if (model.expect) for (const m of solved) checks.push(expectCheck(names, model.expect, m));
+  return checks.map(withRepro);
 }
 
-function judge(file: string, model: Model, methods: MethodResult[], opts: CheckOptions): CheckResult[] {
-  const checks: CheckResult[] = [];
-  const names = model.states.map((s) => s.name);
-  const solved = methods.filter((m) => m.status === 'solved');
-  for (const m of methods) {
-    if (m.status === 'fault') {
-      checks.push({ name: `fault ${m.label}`, passed: false, detail: `${m.fault}: ${m.reason ?? ''}`.trim(), reproduce: reproduce(file, [m.label], opts) });
-    }
+function rangeCheck(names: readonly string[], m: SolvedMethod): CheckResult {
+  const c = compareRange(answer(m));
+  const s = c.worstState;
+  const head = { kind: 'range' as const, name: `range ${shownLabel(m)}`, methods: [m.label], independent: false };
+  return ran(head, c, c.agree
+    ? 'every value in [0, 1] up to its bound'
+    : `state ${names[s]}: value ${m.values[s]} outside [0, 1] by more than its bound ${m.errorBound}`);
+}
+
+/** Two answers within the sum of their bounds; independent evidence only across families. */
+function agreeCheck(names: readonly string[], a: SolvedMethod, b: SolvedMethod): CheckResult {
+  const c = compareAnswers(answer(a), answer(b));
+  const s = c.worstState;
+  const independent = a.family !== b.family;
+  const head = { kind: 'agree' as const, name: `agree ${shownLabel(a)} ~ ${shownLabel(b)}`, methods: [a.label, b.label], independent };
+  const e = (x: number, d: number): string => x.toExponential(d);
+  if (c.agree) {
+    const family = independent ? '' : `; both of family ${a.family}, not independent`;
+    return ran(head, c, `worst state ${names[s] ?? '-'}: |difference| ${e(c.difference, 2)} ≤ allowed ${e(c.allowed, 2)} ` +
+      `(ratio ${formatRatio(c.ratio)})${family}`);
   }
-  for (const m of solved) {
-    const b = m.errorBound!;
-    const bad = m.values!.findIndex((v) => !(v >= -b - 1e-15 && v <= 1 + b + 1e-15));
-    checks.push({
-      name: `range ${m.label}`,
-      passed: bad < 0,
-      detail: bad < 0 ? 'every value in [0, 1] up to its bound' : `state ${names[bad]}: value ${m.values![bad]} outside [0, 1] by more than its bound ${b}`,
-      ...(bad < 0 ? {} : { reproduce: reproduce(file, [m.label], opts) }),
-    });
-  }
-  for (let i = 0; i < solved.length; i++) {
-    for (let j = i + 1; j < solved.length; j++) {
-      const a = solved[i]!;
-      const b = solved[j]!;
-      const c = compareAnswers({ label: a.label, values: a.values!, bound: a.errorBound! }, { label: b.label, values: b.values!, bound: b.errorBound! });
-      const s = names[c.worstState] ?? '-';
-      checks.push({
-        name: `agree ${a.label} ~ ${b.label}`,
-        passed: c.agree,
-        ratio: c.ratio,
-        detail: c.agree
-          ? `worst state ${s}: |difference| ${c.difference.toExponential(2)} ≤ allowed ${c.allowed.toExponential(2)}`
-          : `state ${s}: ${a.label} = ${a.values![c.worstState]}, ${b.label} = ${b.values![c.worstState]}, |difference| ${c.difference.toExponential(3)} > allowed ${c.allowed.toExponential(3)} (bounds ${a.errorBound!.toExponential(2)} + ${b.errorBound!.toExponential(2)})`,
-        ...(c.agree ? {} : { reproduce: reproduce(file, [a.label, b.label], opts) }),
-      });
-    }
-  }
-  if (model.expect) {
-    const exp = model.expect;
-    for (const m of solved) {
-      let worst = '';
-      let worstRatio = 0;
-      let passed = true;
-      for (const [state, text] of Object.entries(exp.values)) {
-        const s = names.indexOf(state);
-        const ref = Number(text);
-        const allowed = exp.tolerance + m.errorBound!;
-        const d = Math.abs(m.values![s]! - ref);
-        const r = d / (allowed + 1e-15);
-        if (!withinTolerance(m.values![s]!, ref, allowed)) {
-          passed = false;
-          worst = `state ${state}: ${m.values![s]} vs expected ${text}, |difference| ${d.toExponential(3)} > ${allowed.toExponential(3)}`;
-        }
-        if (r > worstRatio) worstRatio = r;
-      }
-      checks.push({
-        name: `expect ${m.label}`,
-        passed,
-        ratio: worstRatio,
-        detail: passed ? `matches ${Object.keys(exp.values).length} expected value(s) (${exp.source})` : worst,
-        ...(passed ? {} : { reproduce: reproduce(file, [m.label], opts) }),
-      });
-    }
-  }
-  return checks;
+  return ran(head, c, `state ${names[s] ?? '-'}: ${a.label} = ${a.values[s]}, ${b.label} = ${b.values[s]}, ` +
+    `|difference| ${e(c.difference, 3)} > allowed ${e(c.allowed, 3)} (bounds ${e(a.errorBound, 2)} + ${e(b.errorBound, 2)})`);
+}
+
+/** An answer against the file's reference values (a reference: independent evidence). */
+function expectCheck(names: readonly string[], exp: NonNullable<Model['expect']>, m: SolvedMethod): CheckResult {
+  const entries = Object.entries(exp.values);
+  const ref = { label: 'expect', states: entries.map(([st]) => names.indexOf(st)), values: entries.map(([, t]) => Number(t)), tolerance: exp.tolerance };
+  const c = compareWithReference(answer(m), ref);
+  const s = c.worstState;
+  const head = { kind: 'expect' as const, name: `expect ${shownLabel(m)}`, methods: [m.label], independent: true };
+  return ran(head, c, c.agree
+    ? `matches ${entries.length} expected value(s) (${exp.source}; ratio ${formatRatio(c.ratio)})`
+    : `state ${names[s]}: ${m.values[s]} vs expected ${exp.values[names[s]!]}, ` +
+      `|difference| ${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`);
 }

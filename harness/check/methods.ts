@@ -3,13 +3,13 @@
  * 'kstep:K', 'oracle'. Each returns a MethodResult (plain data) and never throws for a numerical
  * reason: an exception inside a solver is reported as a fault, so one bad model cannot stop a run.
  *
- * A method that refuses at the requested precision because the work would be too large (Euler on a
+ * A method that refuses at the requested precision with code work-cap or precision-floor (Euler on a
  * stiff model, say) is retried at 10×, 100×, … the precision, up to 1e-2; the precision actually used
- * is recorded and the comparisons use the bound it reported, so a looser answer is still a sound
- * cross-check.
+ * is recorded, shown beside the method wherever its answer is, and the comparisons use the bound it
+ * reported, so a looser answer is still a sound cross-check.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome, Solved } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode, Solved } from '../../corpus/format/result.js';
 import type { Scheduler } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveOracle } from '../../oracles/index.js';
@@ -17,7 +17,7 @@ import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
 import { VARIANTS, variantByName } from '../selftest/variants.js';
-import type { MethodResult } from './types.js';
+import type { Family, MethodResult, SolvedMethod } from './types.js';
 
 export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'oracle'] as const;
 
@@ -77,36 +77,72 @@ export function plainChoices(c: Scheduler['choices']): Record<string, { from: nu
   return Object.fromEntries(Object.entries(c).map(([s, segs]) => [s, segs.map((g) => ({ from: g.from, action: g.action }))]));
 }
 
-/** A solved outcome as the plain data of a report. */
-export function solvedResult(label: string, out: Solved, precision: number, seconds: number): MethodResult {
+/** A solved outcome as the plain data of a report; `precision` is what the method ran at. */
+export function solvedResult(
+  id: { label: string; family: Family },
+  out: Solved,
+  run: { requested: number; precision: number },
+  seconds: number,
+): SolvedMethod {
   return {
-    label,
+    ...id,
     status: 'solved',
     values: [...out.values],
     ...(out.valuesDecimal ? { valuesDecimal: [...out.valuesDecimal] } : {}),
     errorBound: out.errorBound,
-    precision,
+    requestedPrecision: run.requested,
+    precision: run.precision,
     seconds,
     stats: { ...out.stats },
     ...(out.scheduler ? { scheduler: { choices: plainChoices(out.scheduler.choices) } } : {}),
   };
 }
 
+/** Refusals after which a coarser precision may succeed. */
+const RETRY_CODES: ReadonlySet<RefusalCode | undefined> = new Set(['work-cap', 'precision-floor']);
+/** The coarsest precision a retry goes to. */
+export const RETRY_LIMIT = 1e-2;
+
+export function familyOfInternal(label: string): Family {
+  const { method } = parseMethodLabel(label);
+  return method === 'variant' ? (label as Family) : method;
+}
+
+/**
+ * Run an own method. Euler, the k-step scheme and planted variants refused with code work-cap or
+ * precision-floor are retried at 10×, 100×, … the precision up to RETRY_LIMIT; the precision they ran
+ * at travels with the answer. An oracle whose self-check failed (code internal) is a fault, as is an
+ * exception from any method.
+ */
 export function runInternal(label: string, ctx: MethodContext): MethodResult {
+  return runWith({ label, family: familyOfInternal(label) }, ctx, (precision) => solveWith(label, ctx, precision));
+}
+
+/** runInternal with the solving step given (so the rules for retries and faults can be tested on planted outcomes). */
+export function runWith(
+  id: { label: string; family: Family },
+  ctx: { precision: number; oracleDigits: number },
+  solveAt: (precision: number) => Outcome,
+): MethodResult {
   const t0 = performance.now();
+  const retries = id.family !== 'oracle' && id.family !== 'uniformization';
   let precision = ctx.precision;
   try {
     for (;;) {
-      const out = solveWith(label, ctx, precision);
+      const out = solveAt(precision);
       const seconds = (performance.now() - t0) / 1000;
       if (out.kind === 'solved') {
-        return solvedResult(label, out, label === 'oracle' ? 10 ** -ctx.oracleDigits : precision, seconds);
+        const ran = id.family === 'oracle' ? 10 ** -ctx.oracleDigits : precision;
+        return solvedResult(id, out, { requested: id.family === 'oracle' ? ran : ctx.precision, precision: ran }, seconds);
       }
-      const retry = label !== 'oracle' && label !== 'uniformization' && precision * 10 <= 1e-2 && /work|steps|intervals|cap/i.test(out.reason);
-      if (!retry) return { label, status: 'refused', reason: out.reason, seconds };
-      precision = Number((precision * 10).toPrecision(12));
+      if (out.code === 'internal') return { ...id, status: 'fault', fault: 'self-check', reason: out.reason, seconds };
+      const next = Number((precision * 10).toPrecision(12));
+      if (!retries || !RETRY_CODES.has(out.code) || next > RETRY_LIMIT) {
+        return { ...id, status: 'refused', code: out.code ?? 'unspecified', reason: out.reason, seconds };
+      }
+      precision = next;
     }
   } catch (e) {
-    return { label, status: 'fault', fault: 'exception', reason: (e as Error).message, seconds: (performance.now() - t0) / 1000 };
+    return { ...id, status: 'fault', fault: 'exception', reason: (e as Error).message, seconds: (performance.now() - t0) / 1000 };
   }
 }

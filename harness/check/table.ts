@@ -1,6 +1,7 @@
 /** The terminal table of `check`, and the list of failures with the command that reproduces each. */
-import type { ModelReport } from './types.js';
-import { modelPassed } from './types.js';
+import { formatRatio } from '../compare/index.js';
+import { commonFailingMethod, summarize } from './summary.js';
+import { modelVerdict, shownLabel, uncheckedReason, type ModelReport, type SolvedMethod } from './types.js';
 
 export function formatTable(header: readonly string[], rows: readonly (readonly string[])[]): string {
   const width = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
@@ -11,44 +12,80 @@ export function formatTable(header: readonly string[], rows: readonly (readonly 
 }
 
 /** The most trustworthy answer of a report: the solved method with the smallest bound. */
-export function bestAnswer(r: ModelReport) {
-  let best;
-  for (const m of r.methods) if (m.status === 'solved' && (!best || m.errorBound! < best.errorBound!)) best = m;
+export function bestAnswer(r: ModelReport): SolvedMethod | undefined {
+  let best: SolvedMethod | undefined;
+  for (const m of r.methods) if (m.status === 'solved' && (!best || m.errorBound < best.errorBound)) best = m;
   return best;
 }
 
-export function formatCheckReport(reports: readonly ModelReport[]): string {
+/** The methods that ran coarser than asked, as shown: 'euler@1e-4, kstep:1@1e-3', or '-'. */
+export function coarserText(r: ModelReport): string {
+  const list = r.methods.filter((m) => m.status === 'solved' && m.precision !== m.requestedPrecision && m.family !== 'oracle');
+  return list.length ? list.map(shownLabel).join(', ') : '-';
+}
+
+/** One line per method whose bound the user assumed (--default-bound), or none. */
+export function assumedBoundNotes(reports: readonly ModelReport[]): string[] {
+  const by = new Map<string, number>();
+  for (const r of reports) for (const m of r.methods) if (m.status === 'solved' && m.boundAssumed) by.set(m.label, (by.get(m.label) ?? 0) + 1);
+  return [...by].map(([label, n]) => `${label}: no error_bound; the bound used on ${n} model(s) is the user's --default-bound, not a claim of the solver`);
+}
+
+const VERDICT_SHOWN = { pass: 'pass', fail: 'FAIL', unchecked: 'UNCHECKED' } as const;
+
+export interface TableOptions {
+  readonly allowUnchecked: boolean;
+  /** An empty run of a shard: said instead of the table. */
+  readonly emptyShard?: { index: number; count: number; corpusFiles: number };
+}
+
+export function formatCheckReport(reports: readonly ModelReport[], opts: TableOptions): string {
+  if (reports.length === 0 && opts.emptyShard) {
+    const s = opts.emptyShard;
+    return `shard ${s.index}/${s.count} holds no model (${s.corpusFiles} model file(s) in all): nothing checked, nothing claimed.`;
+  }
   const rows = reports.map((r) => {
-    const solved = r.methods.filter((m) => m.status === 'solved').length;
     const best = bestAnswer(r);
     const s = r.initial >= 0 ? r.initial : 0;
-    const value = best && r.states > 0 ? `${r.stateNames[s]} = ${best.values![s]!.toPrecision(10)}` : '-';
-    const ratios = r.checks.filter((c) => c.name.startsWith('agree')).map((c) => c.ratio ?? 0);
-    const worst = ratios.length ? Math.max(...ratios) : NaN;
+    const value = best && r.states > 0 ? `${r.stateNames[s]} = ${best.values[s]!.toPrecision(10)}` : '-';
+    const ratios = r.checks.filter((c) => c.kind === 'agree' && c.status !== 'skipped').map((c) => c.ratio ?? 0);
+    const solved = r.methods.filter((m) => m.status === 'solved').length;
     return [
-      r.model,
-      r.kind,
-      String(r.states),
-      r.lambdaT.toPrecision(3),
-      `${solved}/${r.methods.length}`,
-      value,
-      Number.isNaN(worst) ? '-' : worst.toExponential(1),
-      r.error ? 'ERROR' : modelPassed(r) ? 'agree' : 'FAIL',
+      r.model, r.kind, String(r.states), r.lambdaT.toPrecision(3), `${solved}/${r.methods.length}`, coarserText(r), value,
+      ratios.length ? formatRatio(Math.max(...ratios)) : '-',
+      r.error ? 'ERROR' : VERDICT_SHOWN[modelVerdict(r)],
     ];
   });
-  const out = [formatTable(['model', 'kind', 'states', 'λT', 'solved', 'initial value (tightest bound)', 'worst |Δ|/allowed', 'verdict'], rows)];
+  const header = ['model', 'kind', 'states', 'λT', 'solved', 'ran coarser', 'initial value (tightest bound)', 'worst |Δ|/allowed', 'verdict'];
+  const out = [formatTable(header, rows)];
+  const notes = assumedBoundNotes(reports);
+  if (notes.length > 0) out.push('', 'Bounds assumed by the user (marked [bound assumed]):', ...notes.map((n) => `  ${n}`));
   const auditText = formatAudit(reports);
   if (auditText) out.push('', auditText);
-  const failures = reports.flatMap((r) => r.checks.filter((c) => !c.passed).map((c) => ({ r, c })));
+  const unchecked = reports.filter((r) => modelVerdict(r) === 'unchecked');
+  if (unchecked.length > 0) {
+    out.push('', `${unchecked.length} unchecked model(s): nothing independent was compared${opts.allowUnchecked ? ' (allowed by --allow-unchecked)' : ''}:`);
+    for (const r of unchecked) out.push(`  ${r.model} (${r.file}): ${uncheckedReason(r)}`);
+  }
+  const skipped = reports.flatMap((r) => r.checks.filter((c) => c.status === 'skipped').map((c) => ({ r, c })));
+  if (skipped.length > 0) {
+    out.push('', `${skipped.length} check(s) skipped (could not run; not counted as passed):`);
+    for (const { r, c } of skipped.slice(0, 20)) out.push(`  ${r.model} — ${c.name}: ${c.detail}`);
+    if (skipped.length > 20) out.push(`  … and ${skipped.length - 20} more (see --json)`);
+  }
+  const failures = reports.flatMap((r) => r.checks.filter((c) => c.status === 'failed').map((c) => ({ r, c })));
   if (failures.length > 0) {
-    out.push('', `${failures.length} failed check(s):`);
+    const common = commonFailingMethod(reports);
+    out.push('');
+    if (common) out.push(`Every failed check involves method ${common}.`);
+    out.push(`${failures.length} failed check(s):`);
     failures.forEach(({ r, c }, i) => {
       out.push(`  ${i + 1}. ${r.model} (${r.file}) — ${c.name}: ${c.detail}`);
       if (c.reproduce) out.push(`     reproduce: ${c.reproduce}`);
     });
   }
-  const passed = reports.filter(modelPassed).length;
-  out.push('', `${passed} of ${reports.length} model(s) pass every check.`);
+  const s = summarize(reports, opts.allowUnchecked);
+  out.push('', `${s.pass} of ${s.models} model(s) pass every check (with an independent comparison); ${s.fail} fail; ${s.unchecked} unchecked.`);
   return out.join('\n');
 }
 
@@ -69,6 +106,6 @@ function formatAudit(reports: readonly ModelReport[]): string {
   if (rows.length === 0) return '';
   return [
     'Bound audit against the oracle (actual error / stated bound; over 1 is a broken bound, far below 1 a loose one):',
-    formatTable(['method', 'models', 'largest', 'median'], rows.map((r) => [r.method, String(r.models), r.max.toExponential(2), r.median.toExponential(2)])),
+    formatTable(['method', 'models', 'largest', 'median'], rows.map((r) => [r.method, String(r.models), formatRatio(r.max), formatRatio(r.median)])),
   ].join('\n');
 }

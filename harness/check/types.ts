@@ -1,31 +1,79 @@
 /**
  * What `check` finds, as plain serialisable data (it crosses worker threads and is merged across
- * shards). A check is one named verdict; a model passes when every check passes.
+ * shards). A method's answer is a tagged union (solved | refused with a code | fault with a kind); a
+ * check is passed, failed or skipped (it could not run), and names the methods it involves by id.
  */
+import type { RefusalCode } from '../../corpus/format/result.js';
 
-export interface MethodResult {
-  /** e.g. 'uniformization', 'euler', 'kstep:3', 'oracle', 'solver:mysolver'. */
+/**
+ * Method families: answers of one family share code, so their agreement is no independent evidence.
+ * kstep of every order is one family; each external solver is a family of its own ('solver#I'); each
+ * planted broken variant too ('variant:NAME').
+ */
+export type Family = 'uniformization' | 'euler' | 'kstep' | 'defect' | 'oracle' | `solver#${number}` | `variant:${string}`;
+
+/** What went wrong when a method faulted: an external solver's misbehaviour, an exception, a failed self-check. */
+export type FaultKind =
+  | 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound'
+  | 'timeout' | 'crash' | 'exit-code' | 'output-too-large' | 'spawn-failed'
+  | 'exception' | 'self-check';
+
+interface MethodBase {
+  /** The method's id, e.g. 'uniformization', 'euler', 'kstep:3', 'oracle', 'solver:mysolver#1'. */
   readonly label: string;
-  readonly status: 'solved' | 'refused' | 'fault';
-  readonly values?: number[];
-  readonly valuesDecimal?: string[];
-  readonly errorBound?: number;
-  readonly precision?: number;
-  /** Why a method was refused, or which fault an external solver showed. */
-  readonly reason?: string;
-  readonly fault?: string;
+  readonly family: Family;
   readonly seconds: number;
+}
+
+export interface SolvedMethod extends MethodBase {
+  readonly status: 'solved';
+  readonly values: number[];
+  readonly valuesDecimal?: string[];
+  readonly errorBound: number;
+  /** The precision asked of the run of check. */
+  readonly requestedPrecision: number;
+  /** The precision the method ran at: coarser than requested when it was retried after a work cap. */
+  readonly precision: number;
   readonly stats?: Record<string, number>;
   /** The strategy the method returned, if any (elapsed-time segments per owned state). */
   readonly scheduler?: { choices: Record<string, { from: number; action: string }[]> };
+  /** The solver gave no error_bound: `errorBound` is the user's --default-bound, not the solver's claim. */
+  readonly boundAssumed?: true;
 }
 
+export interface RefusedMethod extends MethodBase {
+  readonly status: 'refused';
+  /** 'unspecified' when the refusal carried no code. */
+  readonly code: RefusalCode | 'unspecified';
+  readonly reason: string;
+}
+
+export interface FaultMethod extends MethodBase {
+  readonly status: 'fault';
+  readonly fault: FaultKind;
+  readonly reason: string;
+}
+
+export type MethodResult = SolvedMethod | RefusedMethod | FaultMethod;
+
+export type CheckKind =
+  | 'agree' | 'range' | 'expect' | 'fault' | 'monotone-in-T' | 'dominance' | 'strategy-value' | 'metamorphic';
+
 export interface CheckResult {
-  /** e.g. 'agree kstep:3 ~ oracle', 'range euler', 'expect oracle', 'fault solver:x'. */
+  /** e.g. 'agree kstep:3 ~ oracle', 'range euler@1e-4', 'expect oracle', 'fault solver:x#1' (for people). */
   readonly name: string;
-  readonly passed: boolean;
+  readonly kind: CheckKind;
+  /** Ids (labels) of the methods the check involves (for programs; never parse `name`). */
+  readonly methods: readonly string[];
+  readonly status: 'passed' | 'failed' | 'skipped';
+  /**
+   * The check compared answers of two independent families, or an answer with a reference (an
+   * `expect` value). Only such checks, when they ran, make a model's verdict `pass`.
+   */
+  readonly independent: boolean;
+  /** What was found, or (skipped) why the check could not run. */
   readonly detail: string;
-  /** The largest |difference| / allowed difference seen by this check (agreement checks). */
+  /** The largest |difference| / allowed difference seen by this check. */
   readonly ratio?: number;
   /** One command that reproduces a failure. */
   readonly reproduce?: string;
@@ -51,6 +99,36 @@ export interface ModelReport {
   readonly error?: string;
 }
 
-export function modelPassed(r: ModelReport): boolean {
-  return r.error === undefined && r.checks.every((c) => c.passed);
+/**
+ * pass: every check that ran passed, and at least one independent check ran; fail: some check failed
+ * (or the model could not be loaded); unchecked: nothing independent was compared.
+ */
+export type Verdict = 'pass' | 'fail' | 'unchecked';
+
+export function modelVerdict(r: ModelReport): Verdict {
+  if (r.error !== undefined || r.checks.some((c) => c.status === 'failed')) return 'fail';
+  return r.checks.some((c) => c.independent && c.status === 'passed') ? 'pass' : 'unchecked';
+}
+
+/** Why a model is unchecked, in one line. */
+export function uncheckedReason(r: ModelReport): string {
+  const solved = r.methods.filter((m) => m.status === 'solved');
+  const families = [...new Set(solved.map((m) => m.family))];
+  if (solved.length === 0) return `no method answered (${r.methods.length} tried)`;
+  if (families.length === 1) return `only the ${families[0]} family answered, and no reference value`;
+  return 'no comparison of two independent families ran';
+}
+
+/**
+ * A method's label as shown: with '@precision' when it ran coarser than requested, and '[bound assumed]'
+ * when its bound is the user's --default-bound.
+ */
+export function shownLabel(m: MethodResult): string {
+  if (m.status !== 'solved') return m.label;
+  const at = m.precision !== m.requestedPrecision ? `@${formatPrecision(m.precision)}` : '';
+  return `${m.label}${at}${m.boundAssumed ? '[bound assumed]' : ''}`;
+}
+
+export function formatPrecision(p: number): string {
+  return p.toExponential().replace(/\.0+e/, 'e').replace('e+', 'e');
 }

@@ -8,7 +8,15 @@ import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
+import { UsageError } from './errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
+
+function parseDefaultBound(text: string): 'precision' | number {
+  if (text === 'precision') return 'precision';
+  const b = Number(text);
+  if (text.trim() === '' || !(Number.isFinite(b) && b >= 0 && b < 1)) throw new UsageError(`--default-bound must be 'precision' or a number in [0, 1) (got '${text}')`);
+  return b;
+}
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
 
@@ -23,6 +31,8 @@ interface CheckCliOptions {
   timeout: string;
   oracleDigits: string;
   jobs: string;
+  allowUnchecked: boolean;
+  defaultBound?: string;
 }
 
 export function registerCheck(program: Command, setExit: SetExit): void {
@@ -40,6 +50,8 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--report <file>', 'write the self-contained HTML qualification report')
     .option('--shard <I/N>', 'check only the I-th of N deterministic parts of the corpus')
     .option('--jobs <n>', 'worker threads', String(availableParallelism()))
+    .option('--default-bound <b>', "bound of an external result without error_bound: 'precision' (the precision asked of it) or a number; marked as assumed")
+    .option('--allow-unchecked', 'models where nothing independent was compared do not make the exit code 1', false)
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
       const methods = parseMethodList(o.methods ?? '', '--methods');
@@ -51,7 +63,11 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         ? new cliProgress.SingleBar({ format: 'check [{bar}] {value}/{total} {model}', hideCursor: true, clearOnComplete: true }, cliProgress.Presets.shades_classic)
         : undefined;
       let started = false;
-      const { reports, exitCode } = await runCheck(paths, {
+      const allowUnchecked = o.allowUnchecked;
+      const defaultBound = o.defaultBound === undefined ? undefined : parseDefaultBound(o.defaultBound);
+      const { reports, exitCode, coverage } = await runCheck(paths, {
+        allowUnchecked,
+        ...(defaultBound !== undefined ? { defaultBound } : {}),
         precision,
         methods,
         solvers: o.solver,
@@ -69,13 +85,14 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         },
       });
       for (const r of reports) for (const w of r.warnings) process.stderr.write(`crossbound: ${w}\n`);
-      process.stdout.write(`${formatCheckReport(reports)}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, o.shard), null, 1)}\n`);
-      if (o.junit) writeFileAtomic(o.junit, junitXml(reports));
+      const emptyShard = reports.length === 0 ? { ...coverage.shard, corpusFiles: coverage.corpusFiles } : undefined;
+      process.stdout.write(`${formatCheckReport(reports, { allowUnchecked, ...(emptyShard ? { emptyShard } : {}) })}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, coverage, allowUnchecked), null, 1)}\n`);
+      if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard }));
       if (o.report) {
         // Loaded on demand: the plotting library is large and only the report needs it.
         const { htmlReport } = await import('../reports/html.js');
-        writeFileAtomic(o.report, await htmlReport(reports, { precision, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
+        writeFileAtomic(o.report, await htmlReport(reports, { precision, allowUnchecked, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
       }
       setExit(exitCode);
     });

@@ -2,6 +2,7 @@
 import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
 import { runFuzz } from '../fuzz/index.js';
+import { solverProblem } from '../check/external.js';
 import { parseMethodLabel } from '../check/methods.js';
 import { runSelftest, formatSelftest } from '../selftest/index.js';
 import type { SetExit } from './commands.js';
@@ -43,6 +44,10 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
       const precision = parsePrecision(o.precision);
       const methods = parseMethodList(o.methods, '--methods');
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
+      for (const t of o.solver) {
+        const problem = solverProblem(t); // before anything is solved
+        if (problem) throw new UsageError(problem);
+      }
       let last = 0;
       const summary = await runFuzz({
         runs,

@@ -5,6 +5,7 @@
  */
 import { Command, CommanderError, Option } from 'commander';
 import { ModelError } from '../../corpus/format/load.js';
+import { TemplateError } from '../external/template.js';
 import { UsageError } from './errors.js';
 import { registerCommands } from './commands.js';
 
@@ -28,6 +29,7 @@ async function main(argv: string[]): Promise<number> {
   } catch (e) {
     if (e instanceof CommanderError) return e.exitCode === 0 ? 0 : 2;
     if (e instanceof ModelError || e instanceof UsageError) fail(e.message);
+    if (e instanceof TemplateError) fail(`--solver: ${e.message}`);
     if (process.env.CROSSBOUND_DEBUG) console.error(e);
     fail(`internal error: ${(e as Error).message} (set CROSSBOUND_DEBUG=1 for the trace)`);
   }

@@ -1,14 +1,24 @@
-/** `merge`: the JSON reports of several shards of one check, as one report with one verdict. */
+/**
+ * `merge`: the JSON reports of the shards of one check, as one report with one verdict. The set must
+ * be complete and disjoint: every report of the same corpus (size and digest of its file list) and
+ * shard count N, the shards 1 … N each exactly once, no model file twice, and together exactly the
+ * corpus's files. Otherwise merge refuses with exit code 1 (the run is not known to be covered) and
+ * writes nothing.
+ */
 import { readFileSync } from 'node:fs';
 import type { Command } from 'commander';
+import { digestFiles } from '../check/index.js';
+import { summarize } from '../check/summary.js';
 import { formatCheckReport } from '../check/table.js';
 import type { ModelReport } from '../check/types.js';
-import { modelPassed } from '../check/types.js';
 import { checkJson, type CheckJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
 import { writeFileAtomic } from './output.js';
+
+/** The shard set is not complete or not disjoint: exit 1, not a usage error. */
+export class MergeRefused extends Error {}
 
 function readReport(file: string): CheckJson {
   let data: unknown;
@@ -18,41 +28,87 @@ function readReport(file: string): CheckJson {
     throw new UsageError(`${file}: not a readable JSON file (${(e as Error).message.split('\n')[0]})`);
   }
   const r = data as CheckJson;
-  if (!r || r.format !== 'crossbound-check/1' || !Array.isArray(r.models)) throw new UsageError(`${file}: not a check report of format crossbound-check/1`);
+  if (!r || r.format !== 'crossbound-check/1' || !Array.isArray(r.models)) {
+    throw new UsageError(`${file}: not a check report of format crossbound-check/1`);
+  }
+  const shardOk = r.shard && Number.isInteger(r.shard.index) && Number.isInteger(r.shard.count);
+  if (!shardOk || !r.corpus || typeof r.corpus.digest !== 'string' || !Array.isArray(r.files)) {
+    throw new UsageError(`${file}: the report carries no shard, corpus or file list (written by an older crossbound?)`);
+  }
   return r;
 }
 
-export function mergeReports(files: readonly string[]): { precision: number; models: ModelReport[] } {
+export interface Merged {
+  readonly precision: number;
+  readonly models: ModelReport[];
+  readonly corpus: CheckJson['corpus'];
+  /** Every model file of the corpus, sorted. */
+  readonly all: string[];
+}
+
+export function mergeReports(files: readonly string[]): Merged {
+  const reports = files.map((f) => ({ f, r: readReport(f) }));
+  const first = reports[0]!;
+  const count = first.r.shard.count;
+  const byShard = new Map<number, string>();
   const seen = new Map<string, string>();
   const models: ModelReport[] = [];
-  let precision: number | undefined;
-  for (const f of files) {
-    const r = readReport(f);
-    if (precision !== undefined && r.precision !== precision) throw new UsageError(`${f}: precision ${r.precision} differs from ${precision} of the other reports`);
-    precision = r.precision;
-    for (const m of r.models) {
-      const other = seen.get(m.file);
-      if (other) throw new UsageError(`${f}: model file ${m.file} is also in ${other}`);
-      seen.set(m.file, f);
-      models.push(m);
+  for (const { f, r } of reports) {
+    if (r.precision !== first.r.precision) {
+      throw new UsageError(`${f}: precision ${r.precision} differs from ${first.r.precision} of ${first.f}`);
     }
+    if (r.corpus.digest !== first.r.corpus.digest) throw new MergeRefused(`${f} checked another corpus than ${first.f} (file lists differ)`);
+    if (r.shard.count !== count) throw new MergeRefused(`${f} is shard ${r.shard.index}/${r.shard.count}, ${first.f} is of ${count} shards`);
+    const other = byShard.get(r.shard.index);
+    if (other) throw new MergeRefused(`overlapping shards: ${f} and ${other} are both shard ${r.shard.index}/${count}`);
+    byShard.set(r.shard.index, f);
+    for (const file of r.files) {
+      const o = seen.get(file);
+      if (o) throw new MergeRefused(`overlapping shards: model file ${file} is in ${f} and in ${o}`);
+      seen.set(file, f);
+    }
+    models.push(...r.models.map(({ verdict: _v, ...m }) => m as ModelReport));
+  }
+  const missing = Array.from({ length: count }, (_, i) => i + 1).filter((i) => !byShard.has(i));
+  if (missing.length > 0) {
+    throw new MergeRefused(`incomplete shard set: missing shard(s) ${missing.map((i) => `${i}/${count}`).join(', ')}`);
+  }
+  const all = [...seen.keys()].sort();
+  if (all.length !== first.r.corpus.files || digestFiles(all) !== first.r.corpus.digest) {
+    throw new MergeRefused(`incomplete shard set: the reports list ${all.length} model file(s), the corpus ${first.r.corpus.files}`);
+  }
+  const reported = new Set(models.map((m) => m.file));
+  const unreported = all.filter((f) => !reported.has(f));
+  if (unreported.length > 0) {
+    throw new MergeRefused(`incomplete reports: no result for ${unreported.length} model file(s), e.g. ${unreported[0]}`);
   }
   models.sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0));
-  return { precision: precision ?? 1e-6, models };
+  return { precision: first.r.precision, models, corpus: first.r.corpus, all };
 }
 
 export function registerMerge(program: Command, setExit: SetExit): void {
   program
     .command('merge')
-    .description('merge the --json reports of several shards into one report and one verdict')
+    .description('merge the --json reports of all shards of one check into one verdict (refuses an incomplete or overlapping set)')
     .argument('<reports...>', 'JSON reports written by check --json')
     .option('--json <file>', 'write the merged report as JSON')
     .option('--junit <file>', 'write the merged report as JUnit XML')
-    .action((files: string[], o: { json?: string; junit?: string }) => {
-      const { precision, models } = mergeReports(files);
-      process.stdout.write(`${formatCheckReport(models)}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(models, precision), null, 1)}\n`);
-      if (o.junit) writeFileAtomic(o.junit, junitXml(models));
-      setExit(models.every(modelPassed) ? 0 : 1);
+    .option('--allow-unchecked', 'unchecked models do not make the exit code 1', false)
+    .action((files: string[], o: { json?: string; junit?: string; allowUnchecked: boolean }) => {
+      let merged;
+      try {
+        merged = mergeReports(files);
+      } catch (e) {
+        if (!(e instanceof MergeRefused)) throw e;
+        process.stderr.write(`crossbound: merge refused: ${e.message}\n`);
+        return setExit(1);
+      }
+      const { precision, models, corpus, all } = merged;
+      const allowUnchecked = o.allowUnchecked;
+      process.stdout.write(`${formatCheckReport(models, { allowUnchecked })}\n`);
+      const coverage = { shard: { index: 1, count: 1 }, corpusFiles: corpus.files, corpusDigest: corpus.digest, files: all };
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(models, precision, coverage, allowUnchecked), null, 1)}\n`);
+      if (o.junit) writeFileAtomic(o.junit, junitXml(models, { allowUnchecked }));
+      setExit(summarize(models, allowUnchecked).exitCode);
     });
 }

@@ -39,7 +39,12 @@ export function registerSolve(program: Command, setExit: SetExit): void {
       const label = o.method === 'kstep' ? `kstep:${k}` : o.method;
       const oracleDigits = Math.max(1, Math.round(-Math.log10(precision)));
       const out = solveWith(label, { model, compiled, precision, oracleDigits, ...(scheduler ? { scheduler } : {}) }, precision);
-      if (out.kind === 'refused') throw new UsageError(`${file}: ${o.method} refused: ${out.reason}`);
+      if (out.kind === 'refused' && out.code === 'internal') {
+        // A failed self-check is a fault of the method, not a refusal and not bad input.
+        process.stderr.write(`crossbound: ${file}: ${o.method} failed its own self-check (a fault): ${out.reason}\n`);
+        return setExit(1);
+      }
+      if (out.kind === 'refused') throw new UsageError(`${file}: ${o.method} refused (${out.code ?? 'unspecified'}): ${out.reason}`);
       const json = toResultJson(out, { name: model.name, timeBound: model.timeBound, goalMode: model.goalMode, stateNames: compiled.stateNames });
       if (o.json) {
         process.stdout.write(`${JSON.stringify(json, null, 2)}\n`);

@@ -11,7 +11,10 @@
  *   'missing-state' a state of the model has no entry in `values`;
  *   'bad-value'     a value is not a finite number (JSON has no NaN: a serialiser writes null for
  *                   it), or lies outside [0, 1] by more than VALUE_SLACK;
- *   'no-bound'      `error_bound` is missing, null, negative or not finite (1e999 reads as Infinity).
+ *   'no-bound'      `error_bound` is missing, null, negative or not finite (1e999 reads as Infinity);
+ *                   a missing or null one is replaced by `defaultBound` when the caller gives it (the
+ *                   user's assumption, marked `boundAssumed`, never the solver's claim).
+ * A refusal ({ format, method, refused: "why" } without `values`) is not a fault: it is returned as such.
  * Extra keys are allowed, and so are values for states the model does not have (ignored).
  * The values are kept as reported (not clamped): the comparison judges them against the bound.
  */
@@ -21,7 +24,10 @@ import type { GoalMode } from '../../corpus/format/types.js';
 
 export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
 
-export type ParseOutcome = { ok: true; solved: Solved } | { ok: false; fault: ParseFault; detail: string };
+export type ParseOutcome =
+  | { ok: true; solved: Solved; boundAssumed?: true }
+  | { ok: false; fault: ParseFault; detail: string }
+  | { ok: 'refused'; reason: string };
 
 /**
  * Slack on [0, 1]. A value is a probability, but it is computed in floating point: a convex
@@ -69,6 +75,8 @@ export interface ParseExpect {
   readonly timeBound?: number;
   /** When given, a result for the other goal mode is 'bad-format'. */
   readonly goalMode?: GoalMode;
+  /** When given, the bound of a result without `error_bound` (assumed by the user). */
+  readonly defaultBound?: number;
 }
 
 export function parseResult(text: string, stateNames: readonly string[], expect: ParseExpect = {}): ParseOutcome {
@@ -83,6 +91,10 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   if (doc.format !== 'crossbound-result/1') return fail('bad-format', `\`format\` is ${JSON.stringify(doc.format) ?? 'missing'}, not "crossbound-result/1"`);
   if (typeof doc.method !== 'string' || doc.method === '') return fail('bad-format', '`method` is missing or not a non-empty string');
   if (doc.model !== undefined && typeof doc.model !== 'string') return fail('bad-format', '`model` is not a string');
+  if (doc.refused !== undefined && doc.values === undefined) {
+    if (typeof doc.refused !== 'string' || doc.refused.trim() === '') return fail('bad-format', '`refused` is not a non-empty string');
+    return { ok: 'refused', reason: doc.refused };
+  }
   if (!isPlainObject(doc.values)) return fail('bad-format', '`values` is missing or not an object');
 
   const params: Record<string, number | string> = {};
@@ -146,7 +158,8 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   }
 
   // --- the bound ---
-  const eb = doc.error_bound;
+  const assumed = (doc.error_bound === undefined || doc.error_bound === null) && expect.defaultBound !== undefined;
+  const eb = assumed ? expect.defaultBound : doc.error_bound;
   if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked');
   if (typeof eb !== 'number') return fail('no-bound', `\`error_bound\` is ${JSON.stringify(eb)}, not a number`);
   if (!Number.isFinite(eb) || eb < 0) return fail('no-bound', `\`error_bound\` is ${eb}: it must be a finite number ≥ 0`);
@@ -165,5 +178,5 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
     ...(scheduler ? { scheduler } : {}),
     stats,
   };
-  return { ok: true, solved };
+  return assumed ? { ok: true, solved, boundAssumed: true } : { ok: true, solved };
 }

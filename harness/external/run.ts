@@ -27,7 +27,8 @@ import { buildArgv, checkPlaceholders, splitTemplate } from './template.js';
 export type ExternalFault = ParseFault | 'timeout' | 'crash' | 'exit-code' | 'output-too-large' | 'spawn-failed';
 
 export type ExternalOutcome =
-  | { kind: 'solved'; solved: Solved; seconds: number }
+  | { kind: 'solved'; solved: Solved; seconds: number; boundAssumed?: true }
+  | { kind: 'refused'; reason: string; seconds: number }
   | { kind: 'fault'; fault: ExternalFault; detail: string; seconds: number; stderrTail?: string };
 
 export interface ExternalOptions {
@@ -35,6 +36,8 @@ export interface ExternalOptions {
   precision: number;
   /** The model's time bound, filled into {time}. */
   timeBound: number;
+  /** The bound of a result without `error_bound` (the user's assumption); none: such a result is a 'no-bound' fault. */
+  defaultBound?: number;
   /** Wall-clock limit; default 60 000 ms. */
   timeoutMs?: number;
   /** Cap on stdout; default 64 MiB. */
@@ -182,9 +185,11 @@ export async function runExternal(
 
     // crossbound/1: goal_mode defaults to within.
     const goalMode: GoalMode = (modelJson as { goal_mode?: unknown }).goal_mode === 'at' ? 'at' : 'within';
-    const parsed = parseResult(raw.stdout.toString('utf8'), stateNames, { timeBound: opts.timeBound, goalMode });
+    const expect = { timeBound: opts.timeBound, goalMode, ...(opts.defaultBound !== undefined ? { defaultBound: opts.defaultBound } : {}) };
+    const parsed = parseResult(raw.stdout.toString('utf8'), stateNames, expect);
+    if (parsed.ok === 'refused') return { kind: 'refused', reason: parsed.reason, seconds: seconds() };
     if (!parsed.ok) return fault(parsed.fault, parsed.detail);
-    return { kind: 'solved', solved: parsed.solved, seconds: seconds() };
+    return { kind: 'solved', solved: parsed.solved, seconds: seconds(), ...(parsed.boundAssumed ? { boundAssumed: true } : {}) };
   } catch (e) {
     // Only the harness's own file operations can get here (a full disk, a bad tmpRoot).
     return { kind: 'fault', fault: 'spawn-failed', detail: `could not prepare the solver's run: ${(e as Error).message}`, seconds: seconds() };

@@ -15,6 +15,7 @@ import { exportJson } from '../../corpus/format/export.js';
 import { arbAdversarialModelObject } from '../../corpus/generators/adversarial.js';
 import { arbModelObject, arbSwitchingModelObject } from '../../corpus/generators/random.js';
 import { checkModel } from '../check/checkModel.js';
+import { shellQuote } from '../check/reproduce.js';
 import type { CheckResult, ModelReport } from '../check/types.js';
 
 export interface FuzzOptions {
@@ -100,7 +101,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
       opts.onProgress?.(++done, opts.runs);
     }
     const r = await judgeModel(obj, opts);
-    return r.checks.every((c) => c.passed);
+    return r.checks.every((c) => c.status !== 'failed');
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
@@ -114,12 +115,20 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
     path: out.counterexamplePath ?? '',
     model,
     states: Object.keys(model.states ?? {}).length,
-    failed: final.checks.filter((c) => !c.passed),
+    failed: final.checks.filter((c) => c.status === 'failed'),
   };
-  const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${opts.precision.toExponential()} --methods ${opts.methods.join(',') || 'none'}`;
+  // Every option that changes the run, external solvers included, quoted for a POSIX shell.
+  const solverArgs = [
+    ...(opts.solvers ?? []).flatMap((t) => ['--solver', shellQuote(t)]),
+    ...((opts.solvers ?? []).length > 0 && opts.timeoutMs !== undefined ? ['--timeout', String(opts.timeoutMs / 1000)] : []),
+  ].join(' ');
+  const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${opts.precision.toExponential()} ` +
+    `--methods ${opts.methods.join(',') || 'none'}${solverArgs ? ` ${solverArgs}` : ''}`;
   const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
   const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
-  const reproduce = savedTo ? `crossbound check ${savedTo} --precision ${opts.precision.toExponential()} --methods ${methods}` : replay;
+  const reproduce = savedTo
+    ? `crossbound check ${shellQuote(savedTo)} --precision ${opts.precision.toExponential()} --methods ${methods}${solverArgs ? ` ${solverArgs}` : ''}`
+    : replay;
   return { runs: out.numRuns, drawn, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
 }
 

@@ -6,8 +6,10 @@
 import { readFileSync } from 'node:fs';
 import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import { auditSummary } from '../check/table.js';
-import type { ModelReport } from '../check/types.js';
-import { modelPassed } from '../check/types.js';
+import { formatRatio } from '../compare/index.js';
+import { commonFailingMethod, summarize } from '../check/summary.js';
+import { assumedBoundNotes, coarserText } from '../check/table.js';
+import { modelVerdict, uncheckedReason, type ModelReport, type SolvedMethod } from '../check/types.js';
 import { errorPlot, logLogSlope, measureConvergence, measureValueCurve, svgOf, timePlot, valuePlot } from './plots.js';
 
 export const CAUTION =
@@ -23,22 +25,23 @@ function table(header: string[], rows: string[][]): string {
     .join('')}</tbody></table>`;
 }
 
+const solvedOracle = (r: ModelReport): SolvedMethod | undefined =>
+  r.methods.find((m): m is SolvedMethod => m.family === 'oracle' && m.status === 'solved');
+
 function switchCount(r: ModelReport): string {
-  const oracle = r.methods.find((m) => m.label === 'oracle' && m.status === 'solved');
-  const fromOracle = oracle?.stats?.switches;
+  const fromOracle = solvedOracle(r)?.stats?.switches;
   if (fromOracle !== undefined) return String(fromOracle);
-  const k = r.methods.find((m) => m.label.startsWith('kstep') && m.scheduler);
+  const k = r.methods.find((m): m is SolvedMethod => m.family === 'kstep' && m.status === 'solved' && m.scheduler !== undefined);
   if (!k?.scheduler) return '-';
   return String(Object.values(k.scheduler.choices).reduce((n, segs) => n + Math.max(0, segs.length - 1), 0));
 }
 
 async function plotsSection(reports: readonly ModelReport[]): Promise<string> {
-  const pick = reports.find((r) => r.kind !== 'CTMC' && r.methods.some((m) => m.label === 'oracle' && m.status === 'solved')) ??
-    reports.find((r) => r.methods.some((m) => m.label === 'oracle' && m.status === 'solved'));
-  if (!pick) return '<p>No model with an oracle value: no plots.</p>';
-  const oracle = pick.methods.find((m) => m.label === 'oracle')!;
+  const pick = reports.find((r) => r.kind !== 'CTMC' && solvedOracle(r)) ?? reports.find((r) => solvedOracle(r));
+  const oracle = pick && solvedOracle(pick);
+  if (!pick || !oracle) return '<p>No model with an oracle value: no plots.</p>';
   const { model } = loadModelFileWithWarnings(pick.file);
-  const { points, times } = measureConvergence(model, oracle.values!, oracle.errorBound!);
+  const { points, times } = measureConvergence(model, oracle.values, oracle.errorBound);
   const slopes: Record<number, number> = {};
   for (const k of [1, 2, 3, 4]) slopes[k] = logLogSlope(points.filter((p) => p.k === k).map((p) => ({ x: p.intervals, y: p.error })));
   const state = pick.initial >= 0 ? pick.initial : 0;
@@ -53,49 +56,77 @@ async function plotsSection(reports: readonly ModelReport[]): Promise<string> {
 <div class="plots">${svgs.map((s) => `<figure>${s}</figure>`).join('')}</div>`;
 }
 
-export async function htmlReport(reports: readonly ModelReport[], meta: { precision: number; command: string }): Promise<string> {
-  const passed = reports.filter(modelPassed).length;
-  const failures = reports.flatMap((r) => r.checks.filter((c) => !c.passed).map((c) => ({ r, c })));
-  const verdict = failures.length === 0 ? 'PASS' : 'FAIL';
+function modelFileText(file: string): string {
+  try {
+    return readFileSync(file, 'utf8').slice(0, 20_000);
+  } catch {
+    return '(model file not readable)';
+  }
+}
+
+function failuresSection(reports: readonly ModelReport[]): string {
+  const failures = reports.flatMap((r) => r.checks.filter((c) => c.status === 'failed').map((c) => ({ r, c })));
+  if (failures.length === 0) return '<p>None: every check that ran held.</p>';
+  const common = commonFailingMethod(reports);
+  const lead = common ? `<p class="common">Every failed check involves method <b>${esc(common)}</b>.</p>` : '';
+  return lead + failures.map(({ r, c }) => {
+    const repro = c.reproduce ? `<p>Reproduce: <code>${esc(c.reproduce)}</code></p>` : '';
+    const model = `<details><summary>model ${esc(r.file)}</summary><pre>${esc(modelFileText(r.file))}</pre></details>`;
+    return `<section class="fail"><h3>${esc(r.model)}: ${esc(c.name)}</h3><p>${esc(c.detail)}</p>${repro}${model}</section>`;
+  }).join('\n');
+}
+
+function uncheckedSection(reports: readonly ModelReport[]): string {
+  const list = reports.filter((r) => modelVerdict(r) === 'unchecked');
+  if (list.length === 0) return '<p>None: every model had answers of two independent families compared, or an answer compared with a reference.</p>';
+  return table(['model', 'file', 'why unchecked'], list.map((r) => [r.model, r.file, uncheckedReason(r)]));
+}
+
+function skippedSection(reports: readonly ModelReport[]): string {
+  const list = reports.flatMap((r) => r.checks.filter((c) => c.status === 'skipped').map((c) => [r.model, c.name, c.detail]));
+  if (list.length === 0) return '<p>None.</p>';
+  return `<p>These checks could not run; they count neither as passed nor as failed.</p>${table(['model', 'check', 'reason'], list)}`;
+}
+
+const VERDICT_HTML = { pass: 'PASS', fail: 'FAIL', unchecked: 'UNCHECKED', empty: 'EMPTY' } as const;
+
+export async function htmlReport(reports: readonly ModelReport[], meta: { precision: number; command: string; allowUnchecked: boolean }): Promise<string> {
+  const sum = summarize(reports, meta.allowUnchecked);
+  const verdict = VERDICT_HTML[sum.verdict];
+  const failed = reports.reduce((n, r) => n + r.checks.filter((c) => c.status === 'failed').length, 0);
   const coverage = table(
-    ['model', 'kind', 'states', 'transitions', 'λT', 'goal mode', 'switches', 'methods solved', 'verdict'],
+    ['model', 'kind', 'states', 'transitions', 'λT', 'goal mode', 'switches', 'methods solved', 'ran coarser', 'verdict'],
     reports.map((r) => [
       r.model, r.kind, String(r.states), String(r.transitions), r.lambdaT.toPrecision(3), r.goalMode, switchCount(r),
-      `${r.methods.filter((m) => m.status === 'solved').length}/${r.methods.length}`, modelPassed(r) ? 'pass' : 'FAIL',
+      `${r.methods.filter((m) => m.status === 'solved').length}/${r.methods.length}`, coarserText(r), modelVerdict(r),
     ]),
   );
   const kinds = ['CTMC', 'CTMDP', 'CTMG'].map((k) => `${reports.filter((r) => r.kind === k).length} ${k}`).join(', ');
   const audit = auditSummary(reports);
   const auditHtml = audit.length
-    ? table(['method', 'models', 'largest actual error / bound', 'median'], audit.map((a) => [a.method, String(a.models), a.max.toExponential(2), a.median.toExponential(2)]))
+    ? table(['method', 'models', 'largest actual error / bound', 'median'], audit.map((a) => [a.method, String(a.models), formatRatio(a.max), formatRatio(a.median)]))
     : '<p>No oracle values: no audit.</p>';
-  const failHtml = failures.length
-    ? failures.map(({ r, c }) => {
-        let text = '';
-        try {
-          text = readFileSync(r.file, 'utf8').slice(0, 20_000);
-        } catch {
-          text = '(model file not readable)';
-        }
-        return `<section class="fail"><h3>${esc(r.model)}: ${esc(c.name)}</h3><p>${esc(c.detail)}</p>${c.reproduce ? `<p>Reproduce: <code>${esc(c.reproduce)}</code></p>` : ''}<details><summary>model ${esc(r.file)}</summary><pre>${esc(text)}</pre></details></section>`;
-      }).join('\n')
-    : '<p>None: every pair of answers agreed within the sum of their stated bounds, and every property check held.</p>';
+  const headline = `${sum.pass} of ${sum.models} models pass; ${sum.fail} fail; ${sum.unchecked} unchecked; ${failed} failed check(s). ` +
+    `Requested precision ${meta.precision.toExponential()}; a method shown as name@precision ran at that coarser precision (a work cap).`;
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>crossbound qualification report</title>
 <style>
 body{font-family:system-ui,sans-serif;margin:2em auto;max-width:1100px;color:#222}
 h1{margin-bottom:.2em} .verdict{font-size:1.6em;font-weight:bold;padding:.4em .8em;display:inline-block;border-radius:6px}
-.PASS{background:#d8f5d0;color:#174d0c}.FAIL{background:#fadad7;color:#7a120b}
+.PASS{background:#d8f5d0;color:#174d0c}.FAIL{background:#fadad7;color:#7a120b}.UNCHECKED,.EMPTY{background:#eee;color:#444}
 .caution{border-left:4px solid #c90;background:#fff8e6;padding:.6em 1em}
 table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding:.2em .6em;text-align:right}td:first-child,th:first-child{text-align:left}
 .plots{display:flex;flex-wrap:wrap;gap:1em}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
 </style></head><body>
 <h1>crossbound qualification report</h1>
-<p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${passed} of ${reports.length} models pass every check; ${failures.length} failed check(s). Requested precision ${meta.precision.toExponential()}.</p>
+<p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${esc(headline)}</p>
 <p class="caution">${esc(CAUTION)}</p>
 <h2>Corpus coverage</h2><p>${esc(kinds)}; goal modes: ${reports.filter((r) => r.goalMode === 'within').length} within, ${reports.filter((r) => r.goalMode === 'at').length} at.</p>${coverage}
+${assumedBoundNotes(reports).map((n) => `<p class="caution">Assumed bound: ${esc(n)}</p>`).join('')}
 <h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one.</p>${auditHtml}
-<h2>Disagreements and failed checks</h2>${failHtml}
+<h2>Disagreements and failed checks</h2>${failuresSection(reports)}
+<h2>Unchecked models</h2>${uncheckedSection(reports)}
+<h2>Skipped checks</h2>${skippedSection(reports)}
 <h2>Plots</h2>${await plotsSection(reports)}
 <p><small>Command: <code>${esc(meta.command)}</code></small></p>
 </body></html>

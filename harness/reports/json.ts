@@ -1,21 +1,36 @@
-/** The JSON report of `check` (format crossbound-check/1): every result and every verdict, mergeable across shards. */
-import type { ModelReport } from '../check/types.js';
-import { modelPassed } from '../check/types.js';
+/**
+ * The JSON report of `check` (format crossbound-check/1): every result and every verdict, and what
+ * the run covered (its shard I/N, the model files it checked, the size and digest of the whole
+ * corpus), so that `merge` can refuse an incomplete or overlapping set of shard reports.
+ */
+import type { RunCoverage } from '../check/index.js';
+import { summarize, type RunVerdict } from '../check/summary.js';
+import { modelVerdict, type ModelReport, type Verdict } from '../check/types.js';
 
 export interface CheckJson {
   format: 'crossbound-check/1';
   precision: number;
-  shard?: string;
-  verdict: 'pass' | 'fail';
-  models: ModelReport[];
+  shard: { index: number; count: number };
+  corpus: { files: number; digest: string };
+  /** The model files of this report (its shard). */
+  files: string[];
+  allowUnchecked: boolean;
+  verdict: RunVerdict;
+  counts: { models: number; pass: number; fail: number; unchecked: number };
+  models: (ModelReport & { verdict: Verdict })[];
 }
 
-export function checkJson(reports: readonly ModelReport[], precision: number, shard?: string): CheckJson {
+export function checkJson(reports: readonly ModelReport[], precision: number, coverage: RunCoverage, allowUnchecked: boolean): CheckJson {
+  const s = summarize(reports, allowUnchecked);
   return {
     format: 'crossbound-check/1',
     precision,
-    ...(shard ? { shard } : {}),
-    verdict: reports.every(modelPassed) ? 'pass' : 'fail',
-    models: [...reports],
+    shard: { ...coverage.shard },
+    corpus: { files: coverage.corpusFiles, digest: coverage.corpusDigest },
+    files: [...coverage.files],
+    allowUnchecked,
+    verdict: s.verdict,
+    counts: { models: s.models, pass: s.pass, fail: s.fail, unchecked: s.unchecked },
+    models: reports.map((r) => ({ ...r, verdict: modelVerdict(r) })),
   };
 }

@@ -31,8 +31,8 @@ export async function runSelftest(
     const caughtBy: string[] = [];
     for (const r of reports) {
       for (const c of r.checks) {
-        const involved = c.name.split(/\s+/).filter((w) => w.startsWith('variant:'));
-        if (!c.passed && involved.length === 1 && involved[0] === label) caughtBy.push(`corpus: ${r.model} — ${c.name}`);
+        const involved = c.methods.filter((m) => m.startsWith('variant:'));
+        if (c.status === 'failed' && involved.length === 1 && involved[0] === label) caughtBy.push(`corpus: ${r.model} — ${c.name}`);
       }
     }
     opts.onProgress?.(`fuzz ${label}`);

@@ -19,7 +19,7 @@
  * digits (or fewer than requested, when fewer than 10 were requested).
  */
 import { compile } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import { schedulerPieces, type Scheduler } from '../../corpus/format/scheduler.js';
 import { isCtmc, type Model } from '../../corpus/format/types.js';
 import { decimalAt, decModel, type Dec } from '../common/decModel.js';
@@ -34,7 +34,7 @@ export interface ExpmOptions {
 /** Budget of estimated decimal multiply-adds (both precisions), ~2 µs each at 50 digits. */
 export const EXPM_BUDGET = 1.2e7;
 
-const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'oracle', reason });
+const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: 'oracle', reason, code });
 
 /** Pieces of constant decisions in order of time left, with exact decimal lengths. */
 export function leftPieces(model: Model, scheduler?: Scheduler): LeftPiece[] {
@@ -71,8 +71,12 @@ export interface PiecesValue {
   readonly terms: number;
 }
 
-/** The value of the pieces at two working precisions, or the reason for refusing. */
-export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits: number): PiecesValue | string {
+/** The value of the pieces at two working precisions, or the reason for refusing (a failed self-check is 'internal'). */
+export function valueOfPieces(
+  model: Model,
+  pieces: readonly LeftPiece[],
+  digits: number,
+): PiecesValue | { code: RefusalCode; reason: string } {
   const n = model.states.length;
   const probe = decModel(model, decimalAt(20));
   let nnz = 0;
@@ -84,15 +88,15 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
   const lengths = pieces.map((p) => Number(p.length));
   const cost = propagateCost(n, nnz, probe.maxExit, lengths, p1) + propagateCost(n, nnz, probe.maxExit, lengths, p2);
   if (cost > EXPM_BUDGET) {
-    return `too large for the exact exponential: ${n} states, ‖Q‖T ≈ ${(2 * probe.maxExit * model.timeBound).toPrecision(3)}, ` +
-      `${pieces.length} piece(s), about ${cost.toPrecision(2)} decimal operations (budget ${EXPM_BUDGET})`;
+    return { code: 'work-cap', reason: `too large for the exact exponential: ${n} states, ‖Q‖T ≈ ${(2 * probe.maxExit * model.timeBound).toPrecision(3)}, ` +
+      `${pieces.length} piece(s), about ${cost.toPrecision(2)} decimal operations (budget ${EXPM_BUDGET})` };
   }
   const r1 = propagate(decModel(model, decimalAt(p1)), pieces);
   const r2 = propagate(decModel(model, decimalAt(p2)), pieces);
   const diff = maxAbsDiff(r1.values, r2.values);
   if (diff > (r1.bound + r2.bound) * 1.5 + 10 ** -(p1 + 2)) {
-    return `the two working precisions (${p1}, ${p2} digits) disagree by ${diff.toExponential(2)}, ` +
-      `more than their a priori bounds ${r1.bound.toExponential(2)} + ${r2.bound.toExponential(2)}`;
+    return { code: 'internal', reason: `the two working precisions (${p1}, ${p2} digits) disagree by ${diff.toExponential(2)}, ` +
+      `more than their a priori bounds ${r1.bound.toExponential(2)} + ${r2.bound.toExponential(2)}` };
   }
   return { values: r2.values, bound: r2.bound, diff, precision: p2, squarings: r2.squarings, terms: r2.terms };
 }
@@ -100,14 +104,14 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
 export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
   const started = performance.now();
   const bad = badDigits(opts.digits);
-  if (bad) return refuse(bad);
-  if (!opts.scheduler && !isCtmc(model)) return refuse('the model has choices: give a scheduler, or use the optimal oracle');
+  if (bad) return refuse(bad, 'invalid-input');
+  if (!opts.scheduler && !isCtmc(model)) return refuse('the model has choices: give a scheduler, or use the optimal oracle', 'out-of-scope');
   const digits = opts.digits;
   const pieces = leftPieces(model, opts.scheduler);
   const r = valueOfPieces(model, pieces, digits);
-  if (typeof r === 'string') return refuse(r);
+  if ('code' in r) return refuse(r.reason, r.code);
   const confirmed = confirmedDigits(r.bound, r.diff, digits);
-  if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`);
+  if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`, 'precision-floor');
 
   const values = Float64Array.from(r.values, (v) => v.toNumber());
   return {

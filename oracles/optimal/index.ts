@@ -25,7 +25,7 @@
  * Refuses: more than 30 states, more than 200 segments, more than 20000 grid cells in all (stiff
  * models with large ν·T), fewer than 10 confirmed digits, and any internal inconsistency.
  */
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { decimalAt, decModel, type Dec } from '../common/decModel.js';
@@ -39,7 +39,7 @@ export const OPTIMAL_MAX_STATES = 30;
 export const OPTIMAL_MAX_SEGMENTS = 200;
 export const OPTIMAL_MAX_CELLS = 20_000;
 
-const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'oracle', reason });
+const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: 'oracle', reason, code });
 
 interface Piece {
   readonly start: Dec;
@@ -49,9 +49,9 @@ interface Piece {
 export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const started = performance.now();
   const bad = badDigits(opts.digits);
-  if (bad) return refuse(bad);
+  if (bad) return refuse(bad, 'invalid-input');
   const n = model.states.length;
-  if (n > OPTIMAL_MAX_STATES) return refuse(`the optimal oracle handles at most ${OPTIMAL_MAX_STATES} states, the model has ${n}`);
+  if (n > OPTIMAL_MAX_STATES) return refuse(`the optimal oracle handles at most ${OPTIMAL_MAX_STATES} states, the model has ${n}`, 'out-of-scope');
   const digits = opts.digits;
   const probe = decModel(model, decimalAt(20));
   const nu = 2 * probe.maxExit;
@@ -79,16 +79,16 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
     if (pieces.length > 0) {
       let changed = 0;
       for (let s = 0; s < n; s++) if (dec.choice[s] !== prev[s]) changed++;
-      if (changed === 0) return refuse(`internal: a switch was located at time left ${t0.toSignificantDigits(12)} but no decision changes`);
+      if (changed === 0) return refuse(`internal: a switch was located at time left ${t0.toSignificantDigits(12)} but no decision changes`, 'internal');
       switches += changed;
     }
-    if (pieces.length >= OPTIMAL_MAX_SEGMENTS) return refuse(`more than ${OPTIMAL_MAX_SEGMENTS} segments of constant decisions`);
+    if (pieces.length >= OPTIMAL_MAX_SEGMENTS) return refuse(`more than ${OPTIMAL_MAX_SEGMENTS} segments of constant decisions`, 'work-cap');
     pieces.push({ start: t0, choice: dec.choice });
     let r;
     try {
       r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells });
     } catch (e) {
-      if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`);
+      if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`, 'work-cap');
       throw e;
     }
     cells += r.cells;
@@ -99,7 +99,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
     t0 = r.tEnd;
     prev = dec.choice;
   }
-  if (violation > tolNum * 1.01) return refuse(`internal: Bellman violation ${violation.toExponential(2)} above the tolerance`);
+  if (violation > tolNum * 1.01) return refuse(`internal: Bellman violation ${violation.toExponential(2)} above the tolerance`, 'internal');
 
   // Certificate: the scheduler's own value by the exact exponential.
   const left: LeftPiece[] = pieces.map((pc, i) => ({
@@ -109,14 +109,14 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const certStarted = performance.now();
   const cert = valueOfPieces(model, left, digits);
   const certSeconds = (performance.now() - certStarted) / 1000;
-  if (typeof cert === 'string') return refuse(`certificate: ${cert}`);
+  if ('code' in cert) return refuse(`certificate: ${cert.reason}`, cert.code);
   const diff = maxAbsDiff(x, cert.values);
   const subopt = nu * tolNum * model.timeBound + lost;
   if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
-    return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`);
+    return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`, 'internal');
   }
   const confirmed = confirmedDigits(cert.bound + subopt, diff, digits);
-  if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`);
+  if (confirmed < Math.min(MIN_DIGITS, digits)) return refuse(`asked for ${digits} digits, can confirm ${confirmed}`, 'precision-floor');
 
   const values = Float64Array.from(cert.values, (v) => v.toNumber());
   return {

@@ -45,7 +45,7 @@
  * model has choices and the decisions switch at most MAX_SWITCHES times.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import { UNIT_ROUNDOFF as u, clampUnit, goalIndicator, isFrozen, nowSeconds, precisionProblem } from '../shared/numeric.js';
 import { eulerStep, type StepBuffers } from './step.js';
 import { DecisionLog } from './decisions.js';
@@ -56,10 +56,10 @@ const METHOD = 'euler';
 /** `maxWork` replaces the work cap MAX_WORK (steps × moving states and transitions); benchmarks raise it, check lowers it. */
 export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?: number }): Outcome {
   const t0 = nowSeconds();
-  const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
+  const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: METHOD, reason, code });
   const precision = opts.precision;
   const bad = precisionProblem(precision);
-  if (bad) return refuse(bad);
+  if (bad) return refuse(bad, 'invalid-input');
   const T = m.timeBound;
   const S = m.nStates;
 
@@ -89,7 +89,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const lt = lambda * T;
   const roundingFor = (steps: number): number => 1.01 * u * ((d + 5) * lt + steps * u + 1 + 5 * lt);
   const trunc = precision - roundingFor(MAX_WORK);
-  if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`);
+  if (!(trunc > 0)) return refuse(`precision ${precision} is below the rounding allowance ${roundingFor(MAX_WORK)}`, 'precision-floor');
   const h = Math.min(1 / (1 + 2 * (d + 2) * u), trunc / (lt * (1 + 2 * precision))) / lambda;
   let nFull = Math.floor(T / h);
   while (nFull > 0 && nFull * h > T) nFull--;
@@ -97,7 +97,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const steps = nFull + (hLast > 0 ? 1 : 0);
   const cap = opts.maxWork ?? MAX_WORK;
   if (steps * work > cap) {
-    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`);
+    return refuse(`${steps} steps of step size ${h} over ${work} states and transitions exceed the work cap ${cap} (λT = ${lt})`, 'work-cap');
   }
   // In units of 1/λ (λh, λ·hLast), so that nothing over- or underflows for any finite λ and T.
   const lh = lambda * h;
@@ -132,7 +132,7 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   // The sum above carries ≤ steps·u relative rounding; the margin covers it (steps ≤ 3e9 ≪ 1e7/u).
   const aPosteriori = post * (1 + 1e-6) + roundingFor(steps);
   const reported = Math.min(errorBound, aPosteriori);
-  if (!Number.isFinite(reported)) return refuse(`the error bound is not finite (${reported})`);
+  if (!Number.isFinite(reported)) return refuse(`the error bound is not finite (${reported})`, 'precision-floor');
   const values = new Float64Array(S);
   for (let s = 0; s < S; s++) values[s] = buf.hi[s]! + buf.lo[s]!;
   clampUnit(values); // true values lie in [0, 1]: clamping never adds error

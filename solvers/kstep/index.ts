@@ -21,7 +21,7 @@
  * not at the interval's end. In elapsed time: time left t0 + τ is elapsed T − t0 − τ.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import { chooseEpsilon, inputBound, localBound, roundingBound, singleCoefNorm } from './bound.js';
 import { scaleTime } from '../shared/scale.js';
@@ -40,7 +40,7 @@ export interface KstepOptions {
   readonly looseTie?: number;
 }
 
-const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'kstep', reason });
+const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: 'kstep', reason, code });
 
 export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const started = performance.now();
@@ -49,11 +49,11 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   let T = m.timeBound;
   const S = m.nStates;
   // --- special cases -------------------------------------------------------------------------
-  if (!Number.isInteger(k) || k < 1 || k > 8) return refuse(`k must be an integer from 1 to 8, got ${k}`);
-  if (!(precision > 0) || !Number.isFinite(precision)) return refuse(`precision must be a finite number > 0, got ${precision}`);
-  if (!(T > 0) || !Number.isFinite(T)) return refuse(`time bound must be finite and > 0, got ${T}`);
+  if (!Number.isInteger(k) || k < 1 || k > 8) return refuse(`k must be an integer from 1 to 8, got ${k}`, 'invalid-input');
+  if (!(precision > 0) || !Number.isFinite(precision)) return refuse(`precision must be a finite number > 0, got ${precision}`, 'invalid-input');
+  if (!(T > 0) || !Number.isFinite(T)) return refuse(`time bound must be finite and > 0, got ${T}`, 'invalid-input');
   for (let s = 0; s < S; s++)
-    if (m.actionStart[s + 1]! - m.actionStart[s]! >= 2 && m.owner[s] === 0) return refuse(`state '${m.stateNames[s]}' has a choice and no owner`);
+    if (m.actionStart[s + 1]! - m.actionStart[s]! >= 2 && m.owner[s] === 0) return refuse(`state '${m.stateNames[s]}' has a choice and no owner`, 'invalid-input');
   const within = m.goalMode === 'within';
   const x0 = new Float64Array(S);
   const active = new Uint8Array(S);
@@ -78,14 +78,14 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const frozen = new Uint8Array(S);
   if (within) for (let s = 0; s < S; s++) frozen[s] = m.goal[s]!;
   const scaled = scaleTime(m, lambda, frozen);
-  if ('refused' in scaled) return refuse(scaled.refused);
+  if ('refused' in scaled) return refuse(scaled.refused, 'out-of-scope');
   const unit = scaled.c; // original time = scaled time · c
   m = scaled.m;
   T = m.timeBound;
   lambda *= unit;
   // --- interval length from the bound ----------------------------------------------------------
   if (opts.intervals !== undefined && !(Number.isInteger(opts.intervals) && opts.intervals >= 1))
-    return refuse(`intervals must be an integer ≥ 1, got ${opts.intervals}`);
+    return refuse(`intervals must be an integer ≥ 1, got ${opts.intervals}`, 'invalid-input');
   // Truncation gets 0.9 of the precision, less when the rounding allowance (estimated with
   // C = e^{2λε}, see ./bound.ts) needs more than the remaining tenth; refuse when it needs half.
   const maxIntervals = opts.maxIntervals ?? 1e7;
@@ -100,11 +100,11 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     if (opts.intervals || roundEstimate + budget <= 0.99 * precision) break;
     budget = 0.99 * precision - 1.5 * roundEstimate;
     if (it >= 3 || budget < 0.4 * precision)
-      return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`);
+      return refuse(`precision ${precision} is too close to the rounding of ${N} intervals in double precision (about ${roundEstimate.toExponential(2)})`, 'precision-floor');
   }
   const work = N * (m.nTransitions + m.nStates) * k;
   if (!(N <= maxIntervals) || work > 4e10)
-    return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`);
+    return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`, 'work-cap');
 
   // --- the intervals -------------------------------------------------------------------------
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
@@ -146,12 +146,12 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
     if (!(t1 > t0)) continue;
     const why = span(t0, t1, 0);
-    if (why) return refuse(why);
+    if (why) return refuse(why, 'work-cap');
   }
   // Summing the bounds in floating point: a relative margin of 1e-9 covers its rounding.
   const errorBound = (trunc + round + inputBound(lambda * T) + scaled.flushBound) * (1 + 1e-9);
-  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
-  if (errorBound > precision) return refuse(`the bound reached ${errorBound}, above the precision ${precision}`);
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`, 'precision-floor');
+  if (errorBound > precision) return refuse(`the bound reached ${errorBound}, above the precision ${precision}`, 'precision-floor');
   const stats = {
     intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
     truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,

@@ -33,7 +33,7 @@
  * a precision outside (0, 1), or below what the rounding allowance permits.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import type { Outcome } from '../../corpus/format/result.js';
+import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import { schedulerPieces, type Scheduler, type SchedulerPiece } from '../../corpus/format/scheduler.js';
 import { UNIT_ROUNDOFF, clampUnit, goalIndicator, nowSeconds, precisionProblem } from '../shared/numeric.js';
 import { MAX_QT, foxGlynn, type PoissonWindow } from './foxGlynn.js';
@@ -45,9 +45,9 @@ const METHOD = 'uniformization';
 
 export function solveUniformization(m: CompiledModel, opts: { precision: number; scheduler?: Scheduler }): Outcome {
   const t0 = nowSeconds();
-  const refuse = (reason: string): Outcome => ({ kind: 'refused', method: METHOD, reason });
+  const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: METHOD, reason, code });
   const bad = precisionProblem(opts.precision);
-  if (bad) return refuse(bad);
+  if (bad) return refuse(bad, 'invalid-input');
 
   const T = m.timeBound;
   let pieces: SchedulerPiece[];
@@ -57,7 +57,7 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
     for (let s = 0; s < m.nStates; s++) {
       if (m.owner[s] !== 0) {
         const n = m.actionStart[s + 1]! - m.actionStart[s]!;
-        return refuse(`state '${m.stateNames[s]}' has ${n} actions: uniformization needs a CTMC or a fixed scheduler`);
+        return refuse(`state '${m.stateNames[s]}' has ${n} actions: uniformization needs a CTMC or a fixed scheduler`, 'out-of-scope');
       }
     }
     const action = new Int32Array(m.nStates);
@@ -75,7 +75,7 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
   for (let i = 0; i < pieces.length; i++) {
     if (!(rates[i]!.qt <= MAX_QT)) {
       const p = pieces[i]!;
-      return refuse(`λτ = ${rates[i]!.qt} on elapsed time [${p.start}, ${p.end}] exceeds the limit ${MAX_QT} (that many mat-vecs)`);
+      return refuse(`λτ = ${rates[i]!.qt} on elapsed time [${p.start}, ${p.end}] exceeds the limit ${MAX_QT} (that many mat-vecs)`, 'work-cap');
     }
   }
   const active = rates.filter((r) => r.qt > 0).length;
@@ -101,14 +101,14 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
     return { windows, tails, rounding };
   };
   let budget = opts.precision / (2 * active);
-  if (budget < 1e-200) return refuse(`precision ${opts.precision} spread over ${active} pieces is below 1e-200 per piece`);
+  if (budget < 1e-200) return refuse(`precision ${opts.precision} spread over ${active} pieces is below 1e-200 per piece`, 'precision-floor');
   let p = plan(budget);
   if (p.tails + p.rounding > opts.precision) {
     budget = (opts.precision - 1.1 * p.rounding) / active;
-    if (!(budget >= 1e-200)) return refuse(`the rounding allowance ${p.rounding} leaves no room for precision ${opts.precision}`);
+    if (!(budget >= 1e-200)) return refuse(`the rounding allowance ${p.rounding} leaves no room for precision ${opts.precision}`, 'precision-floor');
     p = plan(budget);
     if (p.tails + p.rounding > opts.precision) {
-      return refuse(`cannot meet precision ${opts.precision}: rounding allowance ${p.rounding}, truncation ${p.tails}`);
+      return refuse(`cannot meet precision ${opts.precision}: rounding allowance ${p.rounding}, truncation ${p.tails}`, 'precision-floor');
     }
   }
 
@@ -139,7 +139,7 @@ export function solveUniformization(m: CompiledModel, opts: { precision: number;
     if (w.right > widest.right) widest = { left: w.left, right: w.right };
   }
   const errorBound = p.tails + p.rounding;
-  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`);
+  if (!Number.isFinite(errorBound)) return refuse(`the error bound is not finite (${errorBound})`, 'precision-floor');
   return {
     kind: 'solved',
     method: METHOD,

@@ -12,8 +12,20 @@ export interface Run {
   stderr: string;
 }
 
-export function crossbound(args: string[], timeoutMs = 120_000): Run {
-  const r = spawnSync(process.execPath, [CLI, ...args], { encoding: 'utf8', timeout: timeoutMs, maxBuffer: 64 << 20 });
+/**
+ * A limit against hangs only, never a speed test: generous enough for a busy 2-core machine running
+ * several test files at once. A child that is killed (by this limit or anything else) fails the test
+ * with the signal, the limit and the end of its stderr, not with a silent null exit code.
+ */
+export const CHILD_LIMIT_MS = 15 * 60_000;
+
+export function crossbound(args: string[], timeoutMs = CHILD_LIMIT_MS): Run {
+  const r = spawnSync(process.execPath, [CLI, ...args], { encoding: 'utf8', timeout: timeoutMs, killSignal: 'SIGKILL', maxBuffer: 64 << 20 });
+  if (r.error || r.signal) {
+    const why = r.signal ? `killed by ${r.signal}` : `failed to run (${r.error!.message})`;
+    const limit = r.signal === 'SIGKILL' ? ` (limit ${timeoutMs / 1000} s)` : '';
+    throw new Error(`crossbound ${args.join(' ')}: ${why}${limit}; stderr tail: ${(r.stderr ?? '').slice(-500)}`);
+  }
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 

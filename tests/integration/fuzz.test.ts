@@ -5,12 +5,15 @@ import { describe, expect, it } from 'vitest';
 import { crossbound, tempFile } from './cli.js';
 
 describe('crossbound fuzz', () => {
-  it('finds no disagreement among the correct methods (seed 5, 150 models)', () => {
-    const r = crossbound(['fuzz', '--runs', '150', '--seed', '5', '--max-states', '8', '--no-save'], 1_800_000);
-    expect(r.stdout).toMatch(/150 random models \(seed 5, up to 8 states\), no disagreement/);
+  // Sized by work, not time: 40 models of up to 8 states (about 0.5 s each on one busy core, more for the
+  // adversarial quarter); the long fuzz runs belong to `crossbound fuzz`, not to the test suite. The time
+  // limit is only a safety net.
+  it('finds no disagreement among the correct methods (seed 5, 40 models)', () => {
+    const r = crossbound(['fuzz', '--runs', '40', '--seed', '5', '--max-states', '8', '--no-save'], 1_800_000);
+    expect(r.stdout).toMatch(/40 random models \(seed 5, up to 8 states\), no disagreement/);
     const drawn = /families drawn: (\d+) random, (\d+) switching, (\d+) adversarial/.exec(r.stdout);
-    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3])).toBe(150);
-    expect(Number(drawn?.[3])).toBeGreaterThan(15);
+    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3])).toBe(40);
+    expect(Number(drawn?.[3])).toBeGreaterThan(3);
     expect(r.code).toBe(0);
   }, 1_800_000);
   it('catches a planted broken variant, shrinks it to at most 4 states, saves it, and the same seed replays it', () => {
@@ -35,7 +38,7 @@ describe('crossbound fuzz', () => {
 
 describe('crossbound selftest', () => {
   it('catches every broken variant of the own solvers by name', () => {
-    const r = crossbound(['selftest', 'corpus/models', '--fuzz-runs', '60'], 1_800_000);
+    const r = crossbound(['selftest', 'corpus/models', '--fuzz-runs', '60', '--jobs', '1'], 1_800_000);
     expect(r.stdout).toMatch(/selftest: (\d+) of \1 broken variants caught/);
     for (const v of ['min-as-max', 'selfloop-exit', 'short-tail', 'at-absorbing', 'skip-last', 'loose-tie', 'bound-third']) expect(r.stdout).toMatch(new RegExp(`^${v}\\s+yes`, 'm'));
     // loose-tie is caught by the fuzz stage itself (its fuzz column names the failed check), not only by a corpus file.

@@ -17,14 +17,14 @@ const good = () => ({
 const parse = (doc: unknown, expect = {}) => parseResult(typeof doc === 'string' ? doc : JSON.stringify(doc), names, expect);
 const faultOf = (doc: unknown, expect = {}) => {
   const r = parse(doc, expect);
-  return r.ok ? 'ok' : r.fault;
+  return r.ok === true ? 'ok' : r.ok === 'refused' ? 'refused' : r.fault;
 };
 
 describe('parseResult', () => {
   it('accepts a valid result, values in state order, method prefixed, extra keys allowed', () => {
     const r = parse({ ...good(), values_decimal: { both_ok: '0.41234', a_worn: '0.7', dry: '1' } });
     expect(r.ok).toBe(true);
-    if (!r.ok) return;
+    if (r.ok !== true) return;
     expect([...r.solved.values]).toEqual([0.41234, 0.7, 1]);
     expect(r.solved.method).toBe('external:kstep');
     expect(r.solved.errorBound).toBe(1e-6);
@@ -33,8 +33,8 @@ describe('parseResult', () => {
   });
   it('carries a scheduler and drops a partial values_decimal', () => {
     const r = parse({ ...good(), values_decimal: { both_ok: '0.41234' }, scheduler: { format: 'crossbound-scheduler/1', choices: { both_ok: [{ from: 0, action: 'run_b' }] } } });
-    expect(r.ok && r.solved.valuesDecimal).toBe(undefined);
-    expect(r.ok && r.solved.scheduler?.choices.both_ok).toEqual([{ from: 0, action: 'run_b' }]);
+    expect(r.ok === true && r.solved.valuesDecimal).toBe(undefined);
+    expect(r.ok === true && r.solved.scheduler?.choices.both_ok).toEqual([{ from: 0, action: 'run_b' }]);
   });
   it("'not-json': text, empty output, a NaN literal", () => {
     expect(faultOf('iteration 1 done')).toBe('not-json');
@@ -76,6 +76,21 @@ describe('parseResult', () => {
     for (const eb of [undefined, null, -1e-9, '1e-6']) expect(faultOf({ ...good(), error_bound: eb })).toBe('no-bound');
     expect(faultOf(JSON.stringify(good()).replace('"error_bound":0.000001', '"error_bound":1e999'))).toBe('no-bound');
     expect(faultOf({ ...good(), error_bound: 0 })).toBe('ok');
+  });
+  it('--default-bound: a missing or null error_bound becomes the given bound, marked as assumed; a bad one stays a fault', () => {
+    for (const eb of [undefined, null]) {
+      const r = parse({ ...good(), error_bound: eb }, { defaultBound: 1e-4 });
+      expect(r).toMatchObject({ ok: true, boundAssumed: true });
+      expect(r.ok === true && r.solved.errorBound).toBe(1e-4);
+    }
+    expect(parse(good(), { defaultBound: 1e-4 })).not.toHaveProperty('boundAssumed');
+    for (const eb of [-1e-9, '1e-6']) expect(faultOf({ ...good(), error_bound: eb }, { defaultBound: 1e-4 })).toBe('no-bound');
+  });
+  it('a refusal (refused, no values) is a refusal, not a fault; an empty or non-string reason is bad-format', () => {
+    expect(parse({ format: 'crossbound-result/1', method: 'mysolver', refused: 'two-player games are not supported' }))
+      .toEqual({ ok: 'refused', reason: 'two-player games are not supported' });
+    expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: '' })).toBe('bad-format');
+    expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: 42 })).toBe('bad-format');
   });
   it('reports the first fault in the documented order', () => {
     expect(faultOf({ format: 'x', values: {} })).toBe('bad-format');

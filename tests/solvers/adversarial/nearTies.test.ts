@@ -5,7 +5,7 @@
  * the closed form 1 − e^{−rT} of the exponential distribution (probability textbooks, e.g. S. Ross,
  * "Introduction to Probability Models", ch. 5), evaluated with decimal.js 10.6.0.
  */
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { buildModel, type ModelObject } from '../../../corpus/format/build.js';
 import { compile } from '../../../corpus/format/compile.js';

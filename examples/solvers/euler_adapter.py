@@ -1,0 +1,87 @@
+#!/usr/bin/env python3
+"""An example external solver for crossbound: explicit Euler on the Bellman equations, pure Python.
+
+    crossbound check corpus --solver 'python3 examples/solvers/euler_adapter.py {model} {precision}'
+
+It reads the model file the harness writes (format crossbound/1, JSON, the `states` form) and prints
+one result (format crossbound-result/1) on standard output. It is honest and simple rather than fast:
+
+- Method: explicit Euler with equal steps h = T/n and h <= 1/lam, lam the largest exit rate of a state
+  that evolves (L. Euler's polygon method). With h <= 1/lam every step is a monotone, sup-norm
+  non-expansive map, the exact flow is non-expansive too, and the error after n steps is at most
+  lam^2 * n * h^2 = lam^2 * T * h (each step's local error is at most (lam*h)^2).
+- Rounding: each step adds at most (d + 3) * u * lam * h per state to the increment (d = longest row,
+  u = 2^-53) and u to the value when the increment is added: in all (d + 3) * u * lam * T + n * u, a
+  first-order sum with a margin of 10 % (the second-order part is far smaller); the bound states it.
+- It refuses (prints {"refused": ...}) when n * (states + transitions) would exceed WORK_CAP, so that
+  it never runs for minutes; a refusal is not a fault.
+Goal states are absorbing in goal mode `within` and keep their actions in mode `at`.
+"""
+import json
+import math
+import sys
+
+WORK_CAP = 3e7
+U = 2.0 ** -53
+
+
+def main() -> int:
+    if len(sys.argv) != 3:
+        print("usage: euler_adapter.py MODEL.json PRECISION", file=sys.stderr)
+        return 2
+    with open(sys.argv[1], encoding="utf-8") as f:
+        model = json.load(f)
+    precision = float(sys.argv[2])
+    names = list(model["states"].keys())
+    index = {s: i for i, s in enumerate(names)}
+    goal = set(model["goal"])
+    within = model.get("goal_mode", "within") == "within"
+    T = float(model["time_bound"])
+    # Rows: per state, a list of actions; per action a list of (successor, rate); self-loops dropped.
+    rows, owner = [], []
+    for s in names:
+        st = model["states"][s]
+        acts = []
+        if not (within and s in goal):
+            for succ in st.get("actions", {}).values():
+                acts.append([(index[t], float(r)) for t, r in succ.items() if t != s and float(r) > 0])
+        rows.append(acts)
+        owner.append(-1 if st.get("owner") == "min" else 1)
+    lam = max((sum(r for _, r in a) for acts in rows for a in acts), default=0.0)
+    d = max((len(a) for acts in rows for a in acts), default=0)
+    work = len(names) + sum(len(a) for acts in rows for a in acts)
+    result = {"format": "crossbound-result/1", "model": model.get("name"), "method": "python-euler"}
+    v = [1.0 if s in goal else 0.0 for s in names]
+    if lam == 0.0:
+        result.update(values=dict(zip(names, v)), error_bound=0.0, params={"precision": precision})
+        print(json.dumps(result))
+        return 0
+    lt = lam * T
+    budget = precision - 1.1 * (d + 3) * U * lt - 2 * U
+    n = math.ceil(max(lt * lt / budget, lt)) if budget > 0 else math.inf
+    if not (n * work <= WORK_CAP):
+        result["refused"] = f"{n} Euler steps over {work} states and transitions exceed this example's work cap"
+        print(json.dumps(result))
+        return 0
+    h = T / n
+    rounding = 1.1 * ((d + 3) * U * lt + n * U) + 2 * U
+    for _ in range(n):
+        nxt = v[:]
+        for s, acts in enumerate(rows):
+            if not acts:
+                continue
+            best = None
+            for a in acts:
+                inc = sum(r * (v[t] - v[s]) for t, r in a)
+                if best is None or (inc > best if owner[s] > 0 else inc < best):
+                    best = inc
+            nxt[s] = min(1.0, max(0.0, v[s] + h * best))
+        v = nxt
+    bound = lam * lam * T * h * (1 + 1e-9) + rounding
+    result.update(values=dict(zip(names, v)), error_bound=bound, params={"precision": precision, "steps": n})
+    print(json.dumps(result))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

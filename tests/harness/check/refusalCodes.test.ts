@@ -1,0 +1,27 @@
+/** The refusal codes the harness acts on, from the real solvers and oracles (the retry rule depends on them). */
+import { describe, expect, it } from 'vitest';
+import { compile } from '../../../corpus/format/compile.js';
+import { loadModelFile } from '../../../corpus/format/load.js';
+import { solveOracle } from '../../../oracles/index.js';
+import { solveEuler } from '../../../solvers/euler/index.js';
+import { solveKstep } from '../../../solvers/kstep/index.js';
+import { solveUniformization } from '../../../solvers/uniformization/index.js';
+
+const ferry = loadModelFile('corpus/models/ferry-crossing.yaml');
+const grid = loadModelFile('corpus/generated/grid-patrol-3.yaml');
+const code = (o: { kind: string; code?: string }): string | undefined => (o.kind === 'refused' ? o.code : 'solved');
+
+describe('refusal codes', () => {
+  it('work-cap: Euler and the k-step scheme over their caps', () => {
+    expect(code(solveEuler(compile(ferry), { precision: 1e-6, maxWork: 100 }))).toBe('work-cap');
+    expect(code(solveKstep(compile(ferry), { precision: 1e-6, k: 1, maxIntervals: 10 }))).toBe('work-cap');
+  });
+  it('out-of-scope: uniformization on a model with choices, the optimal oracle above its size', () => {
+    expect(code(solveUniformization(compile(ferry), { precision: 1e-6 }))).toBe('out-of-scope');
+    expect(code(solveOracle(grid, { digits: 20 }))).toBe('out-of-scope');
+  });
+  it('invalid-input: a precision out of range', () => {
+    expect(code(solveEuler(compile(ferry), { precision: 0 }))).toBe('invalid-input');
+    expect(code(solveKstep(compile(ferry), { precision: 1e-6, k: 9 }))).toBe('invalid-input');
+  });
+});
