@@ -6,7 +6,7 @@
 import type { ModelObject } from './build.js';
 import { got } from './errors.js';
 import { isDecimalString, readDecimal } from './numbers.js';
-import { decimal, mapping, oneOf, onlyKeys, str } from './rules.js';
+import { decimal, mapping, oneOf, onlyKeys, record, str } from './rules.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
 import { validateFlat, validateStates, warnAt } from './validateForms.js';
@@ -78,7 +78,7 @@ function validateExpect(p: Parsed, v: unknown, declared: FormResult['declared'])
   onlyKeys(p, ['expect'], e, ['values', 'tolerance', 'source'], 'expect');
   for (const k of ['values', 'tolerance', 'source']) if (e[k] === undefined) fail(p, ['expect'], `expect needs values, tolerance and source`, `(${k} is missing)`, 'key');
   const vals = mapping(p, ['expect', 'values'], e.values, 'expect.values');
-  const values: Record<string, string> = {};
+  const values: Record<string, string> = record();
   for (const s in vals) {
     if (!declared.has(s)) fail(p, ['expect', 'values', s], 'expect.values must name declared states', got(s), 'key');
     const x = vals[s];

@@ -9,7 +9,7 @@ import { buildFlat } from './flatBuild.js';
 import type { FlatBuilt } from './flatBuild.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
-import { mapping, name, oneOf, onlyKeys, rate } from './rules.js';
+import { mapping, name, oneOf, onlyKeys, rate, record } from './rules.js';
 
 type States = NonNullable<ModelObject['states']>;
 const OWNER_RULE = 'owner must be max or min';
@@ -33,20 +33,20 @@ export function validateStates(p: Parsed, v: unknown, warnings: string[]): FormR
   const declared = new Set<string>();
   for (const s in raw) declared.add(name(p, ['states', s], s, 'key'));
   if (declared.size === 0) fail(p, ['states'], 'a model needs at least one state');
-  const states: States = {};
+  const states: States = record();
   for (const s in raw) {
     const sp = ['states', s];
     const st = mapping(p, sp, raw[s], `state '${s}'`, true);
     onlyKeys(p, sp, st, ['owner', 'actions'], `state '${s}'`);
     const owner = st.owner === undefined ? undefined : oneOf(p, [...sp, 'owner'], st.owner, ['max', 'min'] as const, OWNER_RULE);
     const acts = mapping(p, [...sp, 'actions'], st.actions, `actions of '${s}'`, true);
-    const actions: Record<string, Record<string, RateInput>> = {};
+    const actions: Record<string, Record<string, RateInput>> = record();
     let count = 0;
     for (const a in acts) {
       const ap = [...sp, 'actions', a];
       name(p, ap, a, 'key');
       const succ = mapping(p, ap, acts[a], `action '${s}.${a}'`, true);
-      const out: Record<string, RateInput> = {};
+      const out: Record<string, RateInput> = record();
       for (const t in succ) {
         if (!declared.has(t)) {
           fail(p, [...ap, t], 'successor must name a declared state', `('${t}' in ${s}.${a})`, 'key');
