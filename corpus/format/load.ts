@@ -4,7 +4,7 @@
  * `file:line:column: rule`, and nothing is built. Warnings (an empty goal, an action without
  * successors) are returned by the `...WithWarnings` variants.
  *
- * Limits (limits.ts): files up to 256 MiB (JSON; YAML up to 32 MiB), nesting up to 64 levels,
+ * Limits (limits.ts): files up to 256 MiB (JSON; YAML up to 8 MiB and 500,000 nodes), nesting up to 64 levels,
  * 1000 YAML alias expansions.
  */
 import { basename } from 'node:path';

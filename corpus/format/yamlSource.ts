@@ -3,7 +3,9 @@
  * refuses duplicate keys, keys that are not scalars, and numbers not written in decimal; then plain
  * values. YAML warnings (such as unknown tags) are errors.
  *
- * Cost: parsing is linear in the text, and so is the walk. The parser's own duplicate-key check
+ * Cost: the parser's syntax tree and node tree take about 1 KB per node at their peak, so the input
+ * is limited by bytes and by an estimate of its nodes (limits.ts) before it is parsed; parsing is
+ * then linear in the text, and so is the walk. The parser's own duplicate-key check
  * (option `uniqueKeys`) compares every key with every earlier key of its mapping, quadratic in the
  * size of a mapping (a `states` mapping of 200,000 keys took over ten minutes); it is off, and the
  * walk checks each mapping with a set of its keys instead, under the same equality `toJS` uses to
@@ -13,7 +15,7 @@ import { isAlias, isMap, isPair, isScalar, isSeq, parseDocument, visit } from 'y
 import type { Alias, Document, Node as YamlNode } from 'yaml';
 import { ModelError, posOf } from './errors.js';
 import type { Pos } from './errors.js';
-import { MAX_ALIAS_COUNT, MAX_DEPTH, MAX_YAML_BYTES, yamlDepthExceeded } from './limits.js';
+import { MAX_ALIAS_COUNT, MAX_DEPTH, MAX_YAML_BYTES, MAX_YAML_NODES, scanYaml } from './limits.js';
 import { YAML_DECIMAL } from './numbers.js';
 import type { Parsed, Path } from './source.js';
 
@@ -29,10 +31,14 @@ export function parsedYaml(text: string, file: string): Parsed {
   if (text.length > MAX_YAML_BYTES) {
     throw new ModelError(file, 1, 1, `YAML input is larger than the limit of ${MAX_YAML_BYTES / MiB} MiB`, '(write large models as JSON)');
   }
-  const deep = yamlDepthExceeded(text, MAX_DEPTH);
-  if (deep >= 0) {
-    const pos = posOf(text, deep);
+  const scan = scanYaml(text, MAX_DEPTH);
+  if (scan.deepAt >= 0) {
+    const pos = posOf(text, scan.deepAt);
     throw new ModelError(file, pos.line, pos.column, 'nesting too deep', `(more than ${MAX_DEPTH} levels)`);
+  }
+  if (scan.nodes > MAX_YAML_NODES) {
+    const detail = `(about ${scan.nodes} keys, values and items; write large models as JSON)`;
+    throw new ModelError(file, 1, 1, `YAML input has more than the limit of ${MAX_YAML_NODES} nodes`, detail);
   }
   const doc = parseDocument(text, { uniqueKeys: false, prettyErrors: false, version: '1.2' });
   const syntax = doc.errors[0] ?? doc.warnings[0];

@@ -7,7 +7,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { loadModelText, ModelError } from '../../../corpus/format/load.js';
-import { MAX_YAML_BYTES } from '../../../corpus/format/limits.js';
+import { MAX_YAML_BYTES, MAX_YAML_NODES, scanYaml } from '../../../corpus/format/limits.js';
 
 const HEAD = ['format: crossbound/1', 'time_bound: 1', 'goal: [s0]', 'states:'];
 const N = 20_000;
@@ -86,7 +86,22 @@ describe('keys of a small YAML model', () => {
       expect(m.states[0]!.actions[0]!.successors).toEqual([{ target: 1, rate: 2, rateText: '2' }]);
     }
   });
-  test('a YAML text over the limit is refused before it is parsed', () => {
+  test('a dense YAML list over the node budget is refused before it is parsed', () => {
+    // Two bytes per node: well under the byte limit, over the node budget (about 1 KB each when parsed).
+    const text = `goal: [${'0,'.repeat(MAX_YAML_NODES)}0]\n`;
+    expect(text.length).toBeLessThan(MAX_YAML_BYTES);
+    const e = errorOf(text, 'dense.yaml');
+    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: 1, column: 1, rule: `YAML input has more than the limit of ${MAX_YAML_NODES} nodes` });
+  });
+  test('the node estimate counts at least one per key, value or item of the model shapes', () => {
+    // The 20,000-state model: per state 6 keys, 3 scalar values and 3 mappings, 12 nodes.
+    const n = scanYaml(bigModel(), 64).nodes;
+    expect(n).toBeGreaterThanOrEqual(N * 12);
+    expect(n).toBeLessThan(MAX_YAML_NODES);
+    // Nodes below the root: a, [..], 1, 2, {..}, b, 3, c, x.
+    expect(scanYaml('a: [1, 2, {b: 3}]\nc: x\n', 64).nodes).toBeGreaterThanOrEqual(9);
+  });
+  test('a YAML text over the byte limit is refused before it is parsed', () => {
     const text = `${small('  s0: {}')}#${'x'.repeat(MAX_YAML_BYTES)}\n`;
     const e = errorOf(text, 'huge.yaml');
     expect(e.rule).toMatch(/^YAML input is larger than the limit of \d+ MiB$/);
