@@ -9,7 +9,7 @@ import { isDecimalString, readDecimal } from './numbers.js';
 import { decimal, mapping, oneOf, onlyKeys, record, str } from './rules.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
-import { validateFlat, validateStates, warnAt } from './validateForms.js';
+import { validateFlat, validateStates, warn, warnAt } from './validateForms.js';
 import type { FormResult } from './validateForms.js';
 import type { FlatBuilt } from './flatBuild.js';
 
@@ -54,7 +54,7 @@ export function validateCommon(p: Parsed, top: Record<string, unknown>, form: Fo
   const inGoal = new Set<string>();
   top.goal.forEach((g: unknown, i: number) => {
     if (typeof g !== 'string' || !form.declared.has(g)) fail(p, ['goal', i], 'goal must name declared states', got(g));
-    if (inGoal.has(g)) warnings.push(warnAt(p, ['goal', i], `goal state '${g}' is listed twice`));
+    if (inGoal.has(g)) warn(p, warnings, ['goal', i], `goal state '${g}' is listed twice`);
     inGoal.add(g);
     goal.push(g);
   });

@@ -53,13 +53,29 @@ export function validateStates(p: Parsed, v: unknown, warnings: string[]): FormR
         }
         out[t] = rate(p, [...ap, t], succ[t]);
       }
-      if (Object.keys(out).length === 0) warnings.push(warnAt(p, ap, `action '${s}.${a}' has no successors (it leaves the state unchanged)`));
+      if (Object.keys(out).length === 0) warn(p, warnings, ap, `action '${s}.${a}' has no successors (it leaves the state unchanged)`);
       actions[a] = out;
       if (++count === 2 && owner === undefined) fail(p, ap, NEEDS_OWNER, `('${s}' has no owner: give owner: max or owner: min)`, 'key');
     }
     states[s] = owner === undefined ? { actions } : { owner, actions };
   }
   return { declared, states };
+}
+
+/** Warnings listed with their position; the rest are summed up in one line. */
+export const MAX_WARNINGS = 20;
+
+/**
+ * Add a warning at `path`. Locating a path costs up to one pass over the text, so only the first
+ * MAX_WARNINGS are located and listed (a model with 10^5 empty actions would otherwise take hours);
+ * one more line says that further warnings are not shown. (The empty-goal warning, one at most, is
+ * always listed: it is pushed directly.)
+ */
+export function warn(p: Parsed, warnings: string[], path: readonly (string | number)[], text: string): void {
+  if (warnings.length < MAX_WARNINGS) warnings.push(warnAt(p, path, text));
+  else if (warnings.length === MAX_WARNINGS) {
+    warnings.push(`${p.file}: warning: further warnings not shown (only the first ${MAX_WARNINGS} are listed)`);
+  }
 }
 
 export function warnAt(p: Parsed, path: readonly (string | number)[], text: string): string {
