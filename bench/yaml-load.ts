@@ -54,7 +54,8 @@ export function statesJson(d: Draft[]): string {
     const acts = st.actions.map(([a, succ]) => `"${a}":{${succ.map(([t, r]) => `"${t}":${r}`).join(',')}}`);
     return `"s${s}":{"owner":"${st.owner}","actions":{${acts.join(',')}}}`;
   });
-  return `{"format":"crossbound/1","name":"bench-yaml","time_bound":1,"goal":["s0"],"states":{\n${states.join(',\n')}\n}}\n`;
+  const head = '{"format":"crossbound/1","name":"bench-yaml","time_bound":1,"goal":["s0"],"states":{';
+  return `${head}\n${states.join(',\n')}\n}}\n`;
 }
 
 function time(label: string, f: () => unknown): void {
@@ -71,7 +72,9 @@ if (process.argv[1]?.endsWith('yaml-load.js')) {
   const files = { yaml: join(dir, 'states.yaml'), json: join(dir, 'states.json') };
   writeFileSync(files.yaml, statesYaml(d));
   writeFileSync(files.json, statesJson(d));
-  for (const [k, f] of Object.entries(files)) console.log(`${k}: ${S} states, ${(statSync(f).size / 1e6).toFixed(1)} MB: ${f}`);
+  for (const [k, f] of Object.entries(files)) {
+    console.log(`${k}: ${S} states, ${(statSync(f).size / 1e6).toFixed(1)} MB: ${f}`);
+  }
   if (process.argv.includes('--load')) {
     time('load JSON', () => loadModelFileWithWarnings(files.json));
     time('load YAML', () => loadModelFileWithWarnings(files.yaml));

@@ -22,7 +22,9 @@ export const DECIMAL_TEXT = new RegExp(`^-?${BODY}$`);
 export const YAML_DECIMAL = new RegExp(`^[-+]?${BODY}$`);
 const NONZERO_MANTISSA = /^-?[0-9.]*[1-9]/;
 
-export type NumberCheck = { ok: true; value: number; text: string } | { ok: false; reason: 'type' | 'finite' | 'underflow' };
+export type NumberCheck =
+  | { ok: true; value: number; text: string }
+  | { ok: false; reason: 'type' | 'finite' | 'underflow' };
 
 /** Parse a number or decimal string into its nearest double and its exact text; does not check the sign. */
 export function readDecimal(v: unknown): NumberCheck {

@@ -29,7 +29,8 @@ interface Problem {
 
 export function parsedYaml(text: string, file: string): Parsed {
   if (text.length > MAX_YAML_BYTES) {
-    throw new ModelError(file, 1, 1, `YAML input is larger than the limit of ${MAX_YAML_BYTES / MiB} MiB`, '(write large models as JSON)');
+    const rule = `YAML input is larger than the limit of ${MAX_YAML_BYTES / MiB} MiB`;
+    throw new ModelError(file, 1, 1, rule, '(write large models as JSON)');
   }
   const scan = scanYaml(text, MAX_DEPTH);
   if (scan.deepAt >= 0) {
@@ -56,7 +57,8 @@ export function parsedYaml(text: string, file: string): Parsed {
   try {
     value = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (e) {
-    throw new ModelError(file, 1, 1, 'too many YAML alias expansions', `(limit ${MAX_ALIAS_COUNT}): ${(e as Error).message}`);
+    const detail = `(limit ${MAX_ALIAS_COUNT}): ${(e as Error).message}`;
+    throw new ModelError(file, 1, 1, 'too many YAML alias expansions', detail);
   }
   const at = (offset: number): Pos => posOf(text, offset);
   return { file, value, syntax: 'yaml', locate: (path, part = 'value') => at(yamlLocate(doc, path, part)) };
@@ -80,7 +82,8 @@ function checkTree(doc: Document): Problem | undefined {
         // The key under which toJS stores the pair: '' for null, else the value as a string.
         const name = key === null || key.value === null ? '' : String(key.value);
         if (seen.has(name)) {
-          problem = { offset, rule: 'duplicate key', detail: `: key ${JSON.stringify(name)} appears twice in this mapping` };
+          const detail = `: key ${JSON.stringify(name)} appears twice in this mapping`;
+          problem = { offset, rule: 'duplicate key', detail };
           return visit.BREAK;
         }
         seen.add(name);
@@ -104,10 +107,11 @@ function yamlLocate(doc: Document, path: Path, part: 'key' | 'value'): number {
   let keyAt = startOf(doc.contents, 0);
   let lastAt = keyAt;
   for (const seg of path) {
+    const name = String(seg);
     for (let guard = 0; isAlias(node) && guard < MAX_DEPTH; guard++) node = (node as Alias).resolve(doc);
     let next: unknown;
     if (isMap(node)) {
-      const pair = node.items.find((it) => isPair(it) && String(isScalar(it.key) ? it.key.value : it.key) === String(seg));
+      const pair = node.items.find((it) => isPair(it) && String(isScalar(it.key) ? it.key.value : it.key) === name);
       if (pair) {
         keyAt = startOf(pair.key, lastAt);
         next = pair.value ?? null;

@@ -7,6 +7,8 @@
  * common practice). Generators draw every exponent form, signs, leading zeros, long mantissas and
  * exponents near the overflow and underflow limits of double.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { Decimal } from 'decimal.js';
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
@@ -101,8 +103,9 @@ const decimalText: fc.Arbitrary<string> = fc
     if (form === 0 && e === 0) return fc.constant(`${sign}${m}`);
     return exponentText(e).map((x) => `${sign}${m}${x}`);
   });
-const fixedForms = fc.constantFrom('1e+0', '2.5E+1', '1e-0', '1E5', '.5', '5.', '-0', '007', '0.000', '1e308', '1.7976931348623157e308',
-  '1.7976931348623158e308', '1.797693134862315807e308', '5e-324', '2.4703282292062328e-324', '2.4703282292062327e-324', '0e999999');
+const fixedForms = fc.constantFrom('1e+0', '2.5E+1', '1e-0', '1E5', '.5', '5.', '-0', '007', '0.000', '0e999999',
+  '1e308', '1.7976931348623157e308', '1.7976931348623158e308', '1.797693134862315807e308',
+  '5e-324', '2.4703282292062328e-324', '2.4703282292062327e-324');
 
 const rateObject = (rows: [string, string, string, string][]): Parameters<typeof buildModel>[0] => ({
   time_bound: 1, goal: [], transitions: rows,
@@ -160,7 +163,9 @@ describe('the one number grammar', () => {
     expect(isNearestDouble(new Big(2).pow(-1075), 5e-324)).toBe(false);
   });
 
-  test.each(['+1', ' 1', '1 ', '1e', 'e5', '.', '-.e1', '0x10', '0b1', 'Infinity', '-Infinity', 'NaN', '1_000', '1.2.3', '', '1e+', '--1', '١'])(
+  const outside = ['+1', ' 1', '1 ', '1e', 'e5', '.', '-.e1', '0x10', '0b1', 'Infinity', '-Infinity', 'NaN', '1_000',
+    '1.2.3', '', '1e+', '--1', '١'];
+  test.each(outside)(
     'outside the grammar, refused by the validator and by the exact reader alike: %j',
     (s) => {
       expect(readDecimal(s).ok).toBe(false);
@@ -169,8 +174,25 @@ describe('the one number grammar', () => {
     },
   );
 
+  test('the JSON Schema states the same grammar for non-negative decimal strings', () => {
+    const schema = readFileSync(join(import.meta.dirname, '../../../corpus/format/model.schema.json'), 'utf8');
+    const found = [...schema.matchAll(/"pattern": "(\^\(\?:\[0-9\][^"]*)"/g)];
+    const patterns = found.map((m) => new RegExp(JSON.parse(`"${m[1]}"`), 'u'));
+    expect(patterns.length).toBeGreaterThanOrEqual(3);
+    const refused = ['+1', ' 1', '1e', 'e5', '.', '0x10', 'Infinity', 'NaN', '1_000', '1.2.3', '', '1e+', '-1'];
+    for (const re of patterns) for (const r of refused) expect(re.test(r)).toBe(false);
+    fc.assert(
+      fc.property(fc.oneof(decimalText, fixedForms).filter((x) => !x.startsWith('-')), (x) => {
+        for (const re of patterns) expect(re.test(x)).toBe(DECIMAL_TEXT.test(x));
+      }),
+      { numRuns: 500, seed: 20261202 },
+    );
+  });
+
   test('repeated flat rows whose exact sum overflows double are refused at the row, not built', () => {
-    const json = JSON.stringify({ format: 'crossbound/1', time_bound: 1, goal: [], transitions: [['a', 'go', 'b', '1e308'], ['a', 'go', 'b', '1e308']] });
-    expect(() => loadModelText(json, 'over.json')).toThrow(/^over\.json:1:\d+: rate must be a finite number ≥ 0 \(the repeated rows/);
+    const rows = [['a', 'go', 'b', '1e308'], ['a', 'go', 'b', '1e308']];
+    const json = JSON.stringify({ format: 'crossbound/1', time_bound: 1, goal: [], transitions: rows });
+    const rule = /^over\.json:1:\d+: rate must be a finite number ≥ 0 \(the repeated rows/;
+    expect(() => loadModelText(json, 'over.json')).toThrow(rule);
   });
 });

@@ -26,6 +26,9 @@ function bigModel(edit: (lines: string[]) => void = () => {}): string {
 /** 1-based line of the state line of state s, and of its `go` action. */
 const stateLine = (s: number): number => HEAD.length + 4 * s + 1;
 
+const where = (e: ModelError): { line?: number; column?: number; rule: string } =>
+  ({ line: e.line, column: e.column, rule: e.rule });
+
 function errorOf(text: string, file = 'big.yaml'): ModelError {
   try {
     loadModelText(text, file);
@@ -46,7 +49,7 @@ describe('duplicate keys in a YAML model of 20,000 states', () => {
       l[stateLine(s) + 2] = '      go: { s3: 0.5, s9: 1, s3: 2 }';
     });
     const e = errorOf(text);
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: stateLine(s) + 3, column: 29, rule: 'duplicate key' });
+    expect(where(e)).toEqual({ line: stateLine(s) + 3, column: 29, rule: 'duplicate key' });
     expect(e.message).toBe(`big.yaml:${stateLine(s) + 3}:29: duplicate key: key "s3" appears twice in this mapping`);
   });
   test('a state declared twice (the second near the end) is refused at the second declaration', () => {
@@ -55,7 +58,7 @@ describe('duplicate keys in a YAML model of 20,000 states', () => {
       l[stateLine(s) - 1] = '  s12:';
     });
     const e = errorOf(text);
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: stateLine(s), column: 3, rule: 'duplicate key' });
+    expect(where(e)).toEqual({ line: stateLine(s), column: 3, rule: 'duplicate key' });
   });
   test('an action repeated in block style is refused at the repeated action', () => {
     const s = 9_999;
@@ -63,7 +66,7 @@ describe('duplicate keys in a YAML model of 20,000 states', () => {
       l[stateLine(s) + 2] = `      go: { s1: 1 }\n      wait: { s2: 1 }\n      go: { s3: 1 }`;
     });
     const e = errorOf(text);
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: stateLine(s) + 5, column: 7, rule: 'duplicate key' });
+    expect(where(e)).toEqual({ line: stateLine(s) + 5, column: 7, rule: 'duplicate key' });
   });
 });
 
@@ -71,15 +74,16 @@ describe('keys of a small YAML model', () => {
   const small = (...states: string[]): string => [...HEAD, ...states, ''].join('\n');
   test('keys that become the same property are the same key: 1 and "1"', () => {
     const e = errorOf(small('  s0:', '    actions:', '      go: { s0: 1 }', '  1: {}', '  "1": {}'), 'k.yaml');
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: 9, column: 3, rule: 'duplicate key' });
+    expect(where(e)).toEqual({ line: 9, column: 3, rule: 'duplicate key' });
   });
   test('a key that is a collection is refused', () => {
     const e = errorOf(small('  s0: {}', '  ? [a, b]', '  : {}'), 'k.yaml');
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: 6, column: 5, rule: 'mapping keys must be scalars' });
+    expect(where(e)).toEqual({ line: 6, column: 5, rule: 'mapping keys must be scalars' });
   });
   test('a state called __proto__ is an ordinary state, in YAML and in JSON', () => {
     const y = loadModelText(small('  s0:', '    actions:', '      go: { __proto__: 2 }', '  __proto__: {}'), 'p.yaml');
-    const json = '{"format":"crossbound/1","time_bound":1,"goal":["s0"],"states":{"s0":{"actions":{"go":{"__proto__":2}}},"__proto__":{}}}';
+    const json = '{"format":"crossbound/1","time_bound":1,"goal":["s0"],'
+      + '"states":{"s0":{"actions":{"go":{"__proto__":2}}},"__proto__":{}}}';
     const j = loadModelText(json, 'p.json');
     for (const m of [y, j]) {
       expect(m.states.map((s) => s.name)).toEqual(['s0', '__proto__']);
@@ -91,7 +95,8 @@ describe('keys of a small YAML model', () => {
     const text = `goal: [${'0,'.repeat(MAX_YAML_NODES)}0]\n`;
     expect(text.length).toBeLessThan(MAX_YAML_BYTES);
     const e = errorOf(text, 'dense.yaml');
-    expect({ line: e.line, column: e.column, rule: e.rule }).toEqual({ line: 1, column: 1, rule: `YAML input has more than the limit of ${MAX_YAML_NODES} nodes` });
+    const rule = `YAML input has more than the limit of ${MAX_YAML_NODES} nodes`;
+    expect(where(e)).toEqual({ line: 1, column: 1, rule });
   });
   test('the node estimate counts at least one per key, value or item of the model shapes', () => {
     // The 20,000-state model: per state 6 keys, 3 scalar values and 3 mappings, 12 nodes.
