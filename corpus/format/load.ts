@@ -18,6 +18,7 @@ import { validateCommon, validateModel } from './validate.js';
 import type { Validated } from './validate.js';
 import { validateFlat, validateStates } from './validateForms.js';
 import { GeneratorError, generateModel } from '../generators/index.js';
+import { readDecimal } from './numbers.js';
 import { isMapping } from './rules.js';
 import type { FlatBuilt } from './flatBuild.js';
 
@@ -106,14 +107,15 @@ function expandGenerate(p: Parsed, top: Record<string, unknown>): Validated {
 
 /** The `Model` of a validated object whose states were built by the flat fast path (as buildModel would). */
 function assemble(obj: ModelObject, pre: FlatBuilt, fallbackName: string): Model {
-  const T = obj.time_bound;
+  const T = readDecimal(obj.time_bound);
+  if (!T.ok) throw new Error(`time_bound ${String(obj.time_bound)} is not a finite number`);
   const goal = [...new Set(obj.goal.map((g) => pre.index.get(g)!))].sort((x, y) => x - y);
   const initial = obj.initial === undefined ? undefined : pre.index.get(obj.initial);
   return {
     name: obj.name ?? fallbackName,
     ...(obj.description !== undefined ? { description: obj.description } : {}),
-    timeBound: Number(T),
-    timeBoundText: typeof T === 'number' ? String(T) : T.trim(),
+    timeBound: T.value,
+    timeBoundText: T.text,
     goalMode: obj.goal_mode ?? 'within',
     goal,
     ...(initial !== undefined ? { initial } : {}),

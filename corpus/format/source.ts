@@ -14,6 +14,7 @@ import type { Document, Node as YamlNode } from 'yaml';
 import { ModelError, posOf } from './errors.js';
 import type { Pos } from './errors.js';
 import { jsonLocate, scanJson } from './jsonScan.js';
+import { YAML_DECIMAL } from './numbers.js';
 import { MAX_ALIAS_COUNT, MAX_DEPTH, MAX_FILE_BYTES, MAX_YAML_BYTES, yamlDepthExceeded } from './limits.js';
 
 export type Path = readonly (string | number)[];
@@ -75,8 +76,6 @@ function parsedJson(text: string, file: string): Parsed {
   return { file, value, syntax: 'json', locate: (path, part = 'value') => posOf(text, jsonLocate(text, path, part)) };
 }
 
-const DECIMAL_NUMBER = /^[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?$/;
-
 function parsedYaml(text: string, file: string): Parsed {
   if (text.length > MAX_YAML_BYTES) {
     throw new ModelError(file, 1, 1, `YAML input is larger than the limit of ${MAX_YAML_BYTES / MiB} MiB`, '(write large models as JSON)');
@@ -100,7 +99,7 @@ function parsedYaml(text: string, file: string): Parsed {
   let badNumber: { offset: number; source: string } | undefined;
   visit(doc, {
     Scalar(_k, node) {
-      if (typeof node.value === 'number' && !DECIMAL_NUMBER.test(node.source ?? String(node.value))) {
+      if (typeof node.value === 'number' && !YAML_DECIMAL.test(node.source ?? String(node.value))) {
         badNumber = { offset: node.range?.[0] ?? 0, source: node.source ?? String(node.value) };
         return visit.BREAK;
       }

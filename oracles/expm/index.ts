@@ -22,7 +22,7 @@ import { compile } from '../../corpus/format/compile.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import { schedulerPieces, type Scheduler } from '../../corpus/format/scheduler.js';
 import { isCtmc, type Model } from '../../corpus/format/types.js';
-import { decimalAt, decModel, type Dec } from '../common/decModel.js';
+import { decimalAt, decModel, parseExact, type Dec } from '../common/decModel.js';
 import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { propagate, propagateCost, type LeftPiece } from './propagate.js';
 
@@ -48,7 +48,7 @@ export function leftPieces(model: Model, scheduler?: Scheduler): LeftPiece[] {
   // Elapsed times are doubles, read by their shortest decimal text (as written in a scheduler file);
   // the end of the last piece is T itself, read exactly.
   const D = decimalAt(60);
-  const T = new D(model.timeBoundText);
+  const T = parseExact(D, model.timeBoundText);
   const out: LeftPiece[] = [];
   for (const p of pieces) {
     const start = new D(p.start);

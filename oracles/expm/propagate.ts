@@ -6,7 +6,7 @@
  * taylor.ts). The exact evolution over each piece is a stochastic matrix, hence non-expansive in
  * the sup norm, so the errors of the pieces add: ‖ṽ − v‖ ≤ Σ_i (δ_i + (n+1)u(1+δ_i))·‖ṽ_i‖.
  */
-import type { Dec, DecModel } from '../common/decModel.js';
+import { parseExact, type Dec, type DecModel } from '../common/decModel.js';
 import { applyDense, expOfGenerator } from './taylor.js';
 
 /** A piece of constant decisions, in order of time left; `length` is an exact decimal text. */
@@ -30,7 +30,7 @@ export function propagate(dm: DecModel, pieces: readonly LeftPiece[]): Propagate
   let squarings = 0;
   let terms = 0;
   for (const piece of pieces) {
-    const len = new dm.D(piece.length);
+    const len = parseExact(dm.D, piece.length);
     if (len.isZero()) continue;
     const e = expOfGenerator(dm, piece.choice, len);
     const { y, added } = applyDense(e, x, dm.n, dm.u, zero);

@@ -28,7 +28,7 @@
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
-import { decimalAt, decModel, type Dec } from '../common/decModel.js';
+import { decimalAt, decModel, parseExact, type Dec } from '../common/decModel.js';
 import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { valueOfPieces } from '../expm/index.js';
 import type { LeftPiece } from '../expm/propagate.js';
@@ -58,7 +58,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const p = digits + 14 + Math.ceil(Math.log10(1 + nu * model.timeBound)) + Math.ceil(Math.log10(n + 1));
   const D = decimalAt(p);
   const dm = decModel(model, D);
-  const T = new D(model.timeBoundText);
+  const T = parseExact(D, model.timeBoundText);
   const tolNum = 10 ** -(p - 8);
   const tol = new D(10).pow(-(p - 8));
   const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), maxCells: OPTIMAL_MAX_CELLS };
