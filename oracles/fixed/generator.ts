@@ -72,3 +72,30 @@ export function intMatVec(g: IntGenerator, X: readonly bigint[], W: bigint[]): v
     W[i] = acc;
   }
 }
+
+/** One action as an exact integer row (rates × 10^E). */
+export interface IntRow {
+  readonly col: Int32Array;
+  readonly rate: readonly bigint[];
+  readonly exit: bigint;
+}
+
+/** Every action of every state as an exact integer row. */
+export function intRows(dm: DecModel, E: number): IntRow[][] {
+  return dm.actions.map((acts) => acts.map((a) => {
+    const rate = a.rate.map((r) => {
+      const x = rationalOf(r);
+      return x.m * pow10(E - x.e);
+    });
+    let exit = 0n;
+    for (const r of rate) exit += r;
+    return { col: a.target, rate, exit };
+  }));
+}
+
+/** (q_a · X)·10^E = Σ R_int(s,a,s') X_{s'} − E_int(s,a) X_s, exactly. */
+export function rowDot(row: IntRow, s: number, X: readonly bigint[]): bigint {
+  let acc = -row.exit * X[s]!;
+  for (let q = 0; q < row.col.length; q++) acc += row.rate[q]! * X[row.col[q]!]!;
+  return acc;
+}

@@ -29,6 +29,8 @@ import type { Outcome } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { decimalAt, decModel, parseExact, type Dec } from '../common/decModel.js';
+import { commonExponent, intRows } from '../fixed/generator.js';
+import { bitsForDigits, fixedToDec } from '../fixed/numbers.js';
 import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { valueOfPieces } from '../expm/index.js';
 import type { LeftPiece } from '../expm/propagate.js';
@@ -58,14 +60,20 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const p = digits + 14 + Math.ceil(Math.log10(1 + nu * model.timeBound)) + Math.ceil(Math.log10(n + 1));
   const D = decimalAt(p);
   const dm = decModel(model, D);
-  const T = parseExact(D, model.timeBoundText);
+  // Fixed point: P bits (8 guard bits for the e^θ growth within a cell, θ ≤ 4); times in DT, exactly.
+  const P = bitsForDigits(p) + 8;
+  const DT = decimalAt(3 * P + 100);
+  const T = parseExact(DT, model.timeBoundText);
+  const E = commonExponent(dm);
+  const rows = intRows(dm, E);
   const tolNum = 10 ** -(p - 8);
   const tol = new D(10).pow(-(p - 8));
-  const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), maxCells: OPTIMAL_MAX_CELLS };
+  const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), P, E, rows, DT };
 
   const pieces: Piece[] = [];
-  let x: Dec[] = [...dm.terminal];
-  let t0 = new D(0);
+  const one = 1n << BigInt(P);
+  let x: bigint[] = dm.terminal.map((v) => (v.isZero() ? 0n : one));
+  let t0 = new DT(0);
   let prev: Int32Array = Int32Array.from(dm.actions, (a) => (a.length > 0 ? 0 : -1));
   let switches = 0;
   let cells = 0;
@@ -74,7 +82,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   let violation = 0;
   let order = 0;
   while (t0.lt(T)) {
-    const dec = decide(dm, x, prev, nu, tol);
+    const dec = decide(dm, x.map((v) => fixedToDec(D, v, P)), prev, nu, tol);
     order = Math.max(order, dec.order);
     if (pieces.length > 0) {
       let changed = 0;
@@ -110,8 +118,11 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const cert = valueOfPieces(model, left, digits);
   const certSeconds = (performance.now() - certStarted) / 1000;
   if (typeof cert === 'string') return refuse(`certificate: ${cert}`);
-  const diff = maxAbsDiff(x, cert.values);
-  const subopt = nu * tolNum * model.timeBound + lost;
+  const diff = maxAbsDiff(x.map((v) => fixedToDec(D, v, P)), cert.values);
+  // Advantages were certified on the stepped values, within stepBound of the scheduler's own value in
+  // every state (an advantage moves by at most 2·stepBound in units of ν); the decimal conversion of
+  // the coefficients searched by firstExceed adds a few units of 10^−p (100·u covers it).
+  const subopt = nu * (tolNum + 2 * stepBound + 100 * dm.u) * model.timeBound + lost;
   if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
     return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`);
   }
@@ -131,6 +142,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
       digitsRequested: digits,
       digitsConfirmed: confirmed,
       workingPrecision: p,
+      workingBits: P,
       switches,
       segments: pieces.length,
       cells,
