@@ -37,8 +37,8 @@ import type { LeftPiece } from '../expm/propagate.js';
 import { decide } from './decide.js';
 import { runSegment, TooManyCells } from './segment.js';
 
-export const OPTIMAL_MAX_STATES = 30;
-export const OPTIMAL_MAX_SEGMENTS = 200;
+export const OPTIMAL_MAX_STATES = 200;
+export const OPTIMAL_MAX_SEGMENTS = 1000;
 export const OPTIMAL_MAX_CELLS = 20_000;
 
 const refuse = (reason: string): Outcome => ({ kind: 'refused', method: 'oracle', reason });

@@ -12,9 +12,9 @@
  *
  * The same terms give every advantage of a non-chosen action as a polynomial on the cell,
  * P(σ) = sign·(q_a − q_{d(s)})·Σ ũ_k σ^k / ν. It is certified ≤ tol on the whole cell exactly, in
- * integers, when c_0 + Σ_{k≥1} max(c_k, 0) ≤ tol (σ^k ∈ [0, 1]); otherwise `firstExceed` searches it
- * (in decimal arithmetic at the working precision) for the first point where it exceeds tol: the next
- * switching time. The switch is placed at σ̃ = S/2^P ≥ that point, and the exact time t0 + h(j + σ̃) is
+ * integers, when c_0 + Σ_{k≥1} max(c_k, 0) ≤ tol (σ^k ∈ [0, 1]); otherwise `firstExceedFixed` searches
+ * it (its coefficients truncated to 2^−P) for the first point where it exceeds tol: the next switching
+ * time. The switch is placed at σ̃ = S/2^P ≥ that point, and the exact time t0 + h(j + σ̃) is
  * rounded to td significant digits, chosen so that σ moves by at most wMin/8: the value moves by at
  * most ν_d·|Δt| through that rounding (added to the bound), and the switch lies within 1.25·wMin of
  * the crossing, which multiplies the switching loss w(tol + L·w) by at most 1.25².
@@ -26,7 +26,7 @@ import { sameRow } from '../common/decModel.js';
 import { intGenerator, intMatVec, rowDot, type IntRow } from '../fixed/generator.js';
 import { rationalOf, pow10, toDoubleScaled } from '../fixed/numbers.js';
 import { roundingPerStep, taylorTail } from '../fixed/taylorSteps.js';
-import { firstExceed } from './advantage.js';
+import { firstExceedFixed, floorFixed } from './advantage.js';
 
 export interface SegmentResult {
   readonly tEnd: Dec;
@@ -58,16 +58,8 @@ export interface SegmentOptions {
 
 export class TooManyCells extends Error {}
 
-/** floor(x·2^P) or a little less, for a positive double x: a safe integer threshold. */
-function floorFixed(x: number, P: number): bigint {
-  if (!(x > 0)) return 0n;
-  const k = 52 - Math.floor(Math.log2(x));
-  const f = BigInt(Math.floor(x * 2 ** k * (1 - 1e-12)));
-  return P >= k ? f << BigInt(P - k) : f >> BigInt(k - P);
-}
-
 export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t0: Dec, T: Dec, o: SegmentOptions): SegmentResult {
-  const { D, n } = dm;
+  const { n } = dm;
   const { P, E, rows } = o;
   const g = intGenerator(dm, d, E);
   const nuD = 2 * g.maxExit;
@@ -124,7 +116,11 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
     }
     return out;
   };
-  const scaleDec = new D(2).pow(P).times(new D(10).pow(E)).times(o.nu);
+  // Advantage numerators to binary fixed point at 2^P: N/(10^E·ν) with ν = νM·2^−νK exactly.
+  const nuK = 52 - Math.floor(Math.log2(o.nu));
+  const nuM = BigInt(o.nu * 2 ** nuK);
+  const den10 = pow10(E) * nuM;
+  const toBinary = nuK >= 0 ? (N: bigint): bigint => (N << BigInt(nuK)) / den10 : (N: bigint): bigint => N / (den10 << BigInt(-nuK));
   let V: bigint[] = [...x0];
   let bound = 0;
   let lost = 0;
@@ -135,25 +131,24 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
       intMatVec(g, terms[k - 1]!, W);
       for (const i of g.moving) W[i] = (W[i]! * Rr.m) / dens[k]!;
     }
-    let first: Dec | undefined;
+    let first: bigint | undefined;
     let switchLoss = 0;
     for (const p of pairs) {
       const N = terms.map((t) => adv(p, t));
       let sup = N[0]!;
       for (let k = 1; k <= K; k++) if (N[k]! > 0n) sup += N[k]!;
       if (sup <= tolInt) continue;
-      const c = N.map((x) => new D(x.toString()).div(scaleDec));
-      const r = firstExceed(D, c, o.tol, o.wMin);
+      const r = firstExceedFixed(N.map(toBinary), P, o.tol, o.wMin);
       lost += r.unresolved * o.nu * hn;
-      if (r.at && (!first || r.at.lt(first))) first = r.at;
-      if (r.at) switchLoss += r.switchLoss;
+      if (r.at !== undefined && (first === undefined || r.at < first)) first = r.at;
+      if (r.at !== undefined) switchLoss += r.switchLoss;
     }
     bound += (cellRound + tail * (1 + bound)) * (1 + 1e-9);
     check(V);
     const halfS = 1n << BigInt(P - 1);
-    if (first) {
-      // σ̃ = S/2^P ≥ the located point (by less than 2^−P); the switching time is rounded to td digits.
-      const S = BigInt(new DT(first).times(twoP).ceil().toFixed(0));
+    if (first !== undefined) {
+      // σ̃ = S/2^P is the located point; the switching time is rounded to td digits.
+      const S = first;
       const exactEnd = t0.plus(h.times(new DT(j).plus(new DT(S.toString()).div(twoP))));
       const tEnd = exactEnd.toSignificantDigits(td);
       const dt = Math.abs(tEnd.minus(exactEnd).toNumber()) * (1 + 1e-9);
