@@ -1,29 +1,35 @@
 /**
- * Oracle `optimal`: optimal values of small CTMDPs and CTMGs in high precision, with the optimal
- * scheduler and a certificate.
+ * Oracle `optimal`: optimal values of CTMDPs and CTMGs (up to a few hundred states and transitions)
+ * in high precision, with the optimal scheduler and a certificate.
  *
  * Method (finite optimal control: B. L. Miller, SIAM J. Control 6(2), 1968, for CTMDPs; M. N. Rabe
  * and S. Schewe, Acta Informatica 48, 2011, for games; both from memory): go forward in time left
  * from 0 to T. At a segment start the decisions follow from the lexicographic comparison of
- * derivatives (decide.ts); on the segment the values solve the linear ODE v' = Q_d v, stepped by
- * Taylor series on a grid (segment.ts); the next switch is the first point where an advantage
- * exceeds the tie tolerance, found by a certified bisection that cannot skip a positive excursion
- * (advantage.ts).
+ * derivatives (decide.ts, decimal arithmetic at p digits); on the segment the values solve the linear
+ * ODE v' = Q_d v, stepped by Taylor series on a grid in exact fixed-point arithmetic with P bits
+ * (segment.ts: sparse integer products, one truncation per entry and term, rigorous tail and rounding
+ * bound); the next switch is the first point where an advantage exceeds the tie tolerance, certified
+ * exactly in integers for most cells and otherwise found by a certified bisection that cannot skip a
+ * positive excursion (advantage.ts).
  *
  * Bound. The values reported are those of the emitted scheduler, recomputed by the exact
- * exponential (oracles/expm, two working precisions) with its a priori bound. The scheduler is
- * optimal up to the tie tolerance: on every cell each advantage is certified ≤ tol·ν, so the
- * scheduler's value satisfies the Bellman equations with a residual ≤ tol·ν, and since the
- * Bellman flow is non-expansive in the sup norm its value is within tol·ν·T of the optimum; plus the
- * `lost` terms for uncertified cells and for switching up to wMin late. Digits confirmed require
+ * exponential (oracles/expm: fixed-point Taylor steps, two working precisions) with its rigorous
+ * bound. The scheduler is optimal up to the tie tolerance: on every cell each advantage of the stepped
+ * values is certified ≤ tol·ν; the stepped values are within stepBound of the scheduler's own value,
+ * which moves an advantage by at most 2·stepBound·ν (‖q_a‖∞ ≤ ν/2·2 for each of the two rows); so
+ * the scheduler's value satisfies the Bellman equations with a residual ≤ ν·(tol + 2·stepBound + 100u)
+ * (100u for the decimal tie tests), and since the Bellman flow is non-expansive in the sup norm its
+ * value is within T times that of the optimum; plus the `lost` terms for uncertified cells and for
+ * switching up to 1.25·wMin late. Digits confirmed require
  * that this bound AND the disagreement between the Taylor stepping and the exponential are below
  * half a unit of the last place.
  *
  * Certificate (stats): certificateDisagreement (stepping vs exponential), bellmanViolation (largest
  * opt_a g_a − g_chosen, sign-adjusted, on the cell starts and midpoints of every segment).
  *
- * Refuses: more than 30 states, more than 200 segments, more than 20000 grid cells in all (stiff
- * models with large ν·T), fewer than 10 confirmed digits, and any internal inconsistency.
+ * Refuses: more than 200 states, more than 1000 segments, more than 20000 grid cells in all (stiff
+ * models with large ν·T; the cells bound the work: each costs K ≈ 30–60 sparse products), fewer than
+ * 10 confirmed digits, and any internal inconsistency.
  */
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
