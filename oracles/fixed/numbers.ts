@@ -54,3 +54,13 @@ export function toDoubleScaled(d: bigint, R: number): number {
   const shift = Math.max(0, bits - 60);
   return Number(d >> BigInt(shift)) * 2 ** (shift - R);
 }
+
+/** The exact dyadic form x = m·2^−k of a positive finite double (scaling by 2 is exact). */
+export function dyadicOf(x: number): { m: bigint; k: number } {
+  if (!(x > 0) || !Number.isFinite(x)) throw new Error(`dyadicOf: ${x} is not a positive finite number`);
+  let y = x;
+  let k = 0;
+  while (y < 2 ** 52) { y *= 2; k++; }
+  while (y >= 2 ** 53) { y /= 2; k--; }
+  return { m: BigInt(y), k };
+}

@@ -20,6 +20,7 @@
  * integers; the sup bound is evaluated in doubles from the integers with a relative margin of 1e-12.
  */
 import type { Dec, DecCtor } from '../common/decModel.js';
+import { dyadicOf } from '../fixed/numbers.js';
 
 export interface ExceedFixed {
   /** First σ = at/2^Q with P(σ) > tol, to within wMin, or undefined. */
@@ -37,13 +38,12 @@ export interface Exceed extends Omit<ExceedFixed, 'at'> {
 
 const NODE_BUDGET = 20_000;
 
-/** floor(x·2^Q) or a little less, for a double x (a safe integer threshold). */
+/** floor(x·2^Q·(1 − 1e-12)) for a double x: a safe integer threshold just below x·2^Q. */
 export function floorFixed(x: number, Q: number): bigint {
   if (x === 0) return 0n;
   if (x < 0) return -floorFixed(-x, Q) - 1n;
-  const k = 52 - Math.floor(Math.log2(x));
-  const f = BigInt(Math.floor(x * 2 ** k * (1 - 1e-12)));
-  return Q >= k ? f << BigInt(Q - k) : f >> BigInt(k - Q);
+  const { m, k } = dyadicOf(x * (1 - 1e-12));
+  return Q >= k ? m << BigInt(Q - k) : m >> BigInt(k - Q);
 }
 
 /** The search on integer coefficients C_k (c_k = C_k/2^Q). */

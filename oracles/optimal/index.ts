@@ -74,7 +74,9 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const rows = intRows(dm, E);
   const tolNum = 10 ** -(p - 8);
   const tol = new D(10).pow(-(p - 8));
-  const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), P, E, rows, DT };
+  // Normalisation of advantages (any positive number; 2·max exit rate, or 1 when nothing moves).
+  const nuN = nu > 0 ? nu : 1;
+  const seg = { nu: nuN, tol: tolNum, wMin: 10 ** -(p - 6), P, E, rows, DT };
 
   const pieces: Piece[] = [];
   const one = 1n << BigInt(P);
@@ -128,7 +130,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   // Advantages were certified on the stepped values, within stepBound of the scheduler's own value in
   // every state (an advantage moves by at most 2·stepBound in units of ν); the decimal conversion of
   // the coefficients searched by firstExceed adds a few units of 10^−p (100·u covers it).
-  const subopt = nu * (tolNum + 2 * stepBound + 100 * dm.u) * model.timeBound + lost;
+  const subopt = nuN * (tolNum + 2 * stepBound + 100 * dm.u) * model.timeBound + lost;
   if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
     return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`);
   }

@@ -24,7 +24,7 @@
 import type { Dec, DecCtor, DecModel } from '../common/decModel.js';
 import { sameRow } from '../common/decModel.js';
 import { intGenerator, intMatVec, rowDot, type IntRow } from '../fixed/generator.js';
-import { rationalOf, pow10, toDoubleScaled } from '../fixed/numbers.js';
+import { dyadicOf, rationalOf, pow10, toDoubleScaled } from '../fixed/numbers.js';
 import { roundingPerStep, taylorTail } from '../fixed/taylorSteps.js';
 import { firstExceedFixed, floorFixed } from './advantage.js';
 
@@ -74,9 +74,15 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
   // An advantage numerator N is at scale 10^E·2^P·ν: adv = N / (10^E 2^P ν).
   const adv = (p: { s: number; a: number; sign: bigint }, V: readonly bigint[]): bigint =>
     p.sign * (rowDot(rows[p.s]![p.a]!, p.s, V) - rowDot(rows[p.s]![d[p.s]!]!, p.s, V));
-  const scale10 = 10 ** E;
-  const advDouble = (N: bigint): number => (N < 0n ? -1 : 1) * toDoubleScaled(N < 0n ? -N : N, P) / scale10 / o.nu;
-  const tolInt = floorFixed(o.tol * o.nu, P) * pow10(E);
+  // Advantage numerators to binary fixed point at 2^P: N/(10^E·ν) with ν = νM·2^−νK exactly.
+  const { m: nuM, k: nuK } = dyadicOf(o.nu);
+  const den10 = pow10(E) * nuM;
+  const toBinary = nuK >= 0 ? (N: bigint): bigint => (N << BigInt(nuK)) / den10 : (N: bigint): bigint => N / (den10 << BigInt(-nuK));
+  const advDouble = (N: bigint): number => {
+    const B = toBinary(N);
+    return (B < 0n ? -1 : 1) * toDoubleScaled(B < 0n ? -B : B, P);
+  };
+  const tolInt = floorFixed(o.tol, P);
   let violation = 0;
   const check = (V: readonly bigint[]): void => {
     for (const p of pairs) violation = Math.max(violation, advDouble(adv(p, V)));
@@ -116,11 +122,6 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
     }
     return out;
   };
-  // Advantage numerators to binary fixed point at 2^P: N/(10^E·ν) with ν = νM·2^−νK exactly.
-  const nuK = 52 - Math.floor(Math.log2(o.nu));
-  const nuM = BigInt(o.nu * 2 ** nuK);
-  const den10 = pow10(E) * nuM;
-  const toBinary = nuK >= 0 ? (N: bigint): bigint => (N << BigInt(nuK)) / den10 : (N: bigint): bigint => N / (den10 << BigInt(-nuK));
   let V: bigint[] = [...x0];
   let bound = 0;
   let lost = 0;
@@ -137,7 +138,7 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
       const N = terms.map((t) => adv(p, t));
       let sup = N[0]!;
       for (let k = 1; k <= K; k++) if (N[k]! > 0n) sup += N[k]!;
-      if (sup <= tolInt) continue;
+      if (toBinary(sup) + 1n <= tolInt) continue;
       const r = firstExceedFixed(N.map(toBinary), P, o.tol, o.wMin);
       lost += r.unresolved * o.nu * hn;
       if (r.at !== undefined && (first === undefined || r.at < first)) first = r.at;
