@@ -35,11 +35,25 @@ if (which === 'all' || which === 'ctmc') {
     row('CTMC ring a=0.75 b=0.25', ring(n, '0.75', '0.25', '100'), (m) => solveExpm(m, { digits: 30 }));
     row('CTMC random, 3 successors', randomStructure(n, 1, 3, '12', n), (m) => solveExpm(m, { digits: 30 }));
   }
+  // A fixed scheduler of 10 pieces on a 1,000-state model with two actions per state.
+  row('fixed scheduler, 10 pieces', randomStructure(1000, 2, 3, '12', 7), (m) => {
+    const choices: Record<string, { from: number; action: string }[]> = {};
+    m.states.forEach((st, s) => {
+      if (st.actions.length < 2) return;
+      choices[st.name] = Array.from({ length: 10 }, (_, i) => ({ from: i * 1.2, action: st.actions[(s + i) % 2]!.name }));
+    });
+    return solveExpm(m, { digits: 30, scheduler: { choices } });
+  });
 }
 if (which === 'all' || which === 'optimal') {
   for (const n of [30, 60, 100]) {
     row('CTMDP random, 2 actions × 2 succ.', randomStructure(n, 2, 2, '1.5', 100 + n), (m) => solveOptimal(m, { digits: 25 }));
     row('CTMG random, 2 actions × 2 succ.', randomStructure(n, 2, 2, '1.5', 200 + n, true), (m) => solveOptimal(m, { digits: 25 }));
   }
+  for (const n of [30, 60, 100]) {
+    row('CTMDP random, T = 6', randomStructure(n, 2, 2, '6', 300 + n), (m) => solveOptimal(m, { digits: 25 }));
+    row('CTMG random, T = 6', randomStructure(n, 2, 2, '6', 400 + n, true), (m) => solveOptimal(m, { digits: 25 }));
+  }
+  row('CTMG random, 3 actions × 3 succ., T = 3', randomStructure(100, 3, 3, '3', 500, true), (m) => solveOptimal(m, { digits: 25 }));
 }
 console.log(formatTable(['model', 'states', 'transitions', 'λT', 'digits confirmed', 'seconds', 'switches / note'], rows));
