@@ -98,15 +98,17 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
   }
   const P1 = P0 + Math.ceil(Math.log2(work + 1) + THETA_STEP * Math.LOG2E) + 8;
   const P2 = P1 + 34;
-  const cost = propagateFixedCost(n, nnz, probe.maxExit, lengths, P1) + propagateFixedCost(n, nnz, probe.maxExit, lengths, P2);
+  const cost = propagateFixedCost(n, nnz, probe.maxExit, lengths, P1) +
+    propagateFixedCost(n, nnz, probe.maxExit, lengths, P2);
   if (cost > EXPM_BUDGET) {
     return `too large for the exact exponential: ${n} states, ${nnz} transitions, ` +
       `‖Q‖T ≈ ${(2 * probe.maxExit * model.timeBound).toPrecision(3)}, ${pieces.length} piece(s), ` +
       `about ${cost.toPrecision(2)} fixed-point operations (budget ${EXPM_BUDGET})`;
   }
-  const dm = decModel(model, decimalAt(20));
-  const r1 = propagateFixed(dm, pieces, P1);
-  const r2 = propagateFixed(dm, pieces, P2);
+  // The rates are read exactly whatever the precision of the constructor (it only rounds exit sums,
+  // which the fixed-point path recomputes exactly).
+  const r1 = propagateFixed(probe, pieces, P1);
+  const r2 = propagateFixed(probe, pieces, P2);
   let diff = 0;
   for (let s = 0; s < n; s++) diff = Math.max(diff, fixedDiff(r1.X[s]!, P1, r2.X[s]!, P2));
   if (diff > r1.bound + r2.bound) {
@@ -115,7 +117,8 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
   }
   const D = decimalAt(Math.ceil(P2 * Math.log10(2)) + 10);
   const values = r2.X.map((x) => fixedToDec(D, x, P2));
-  return { values, bound: r2.bound, diff, precision: Math.floor(P2 * Math.log10(2)), bits: P2, steps: r2.steps, terms: r2.maxTerms };
+  const precision = Math.floor(P2 * Math.log10(2));
+  return { values, bound: r2.bound, diff, precision, bits: P2, steps: r2.steps, terms: r2.maxTerms };
 }
 
 export function solveExpm(model: Model, opts: ExpmOptions): Outcome {

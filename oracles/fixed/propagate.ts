@@ -44,7 +44,9 @@ export function propagateFixed(dm: DecModel, pieces: readonly LeftPiece[], P: nu
 }
 
 /** Estimated BigInt multiply-adds of propagateFixed (for refusing before starting). */
-export function propagateFixedCost(n: number, nnz: number, maxExit: number, lengths: readonly number[], P: number): number {
+export function propagateFixedCost(
+  n: number, nnz: number, maxExit: number, lengths: readonly number[], P: number,
+): number {
   let ops = 0;
   for (const len of lengths) {
     const plan = planSteps(maxExit, len, P);

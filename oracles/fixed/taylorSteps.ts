@@ -76,7 +76,9 @@ export interface Stepped {
  * Advance X (values X/2^P, modified in place) over a piece of exact length `len` with generator g.
  * `prior` is the error bound of X on entry (for the ‖ṽ‖ factor of the tail).
  */
-export function stepPiece(g: IntGenerator, X: bigint[], P: number, len: DecRational, lengthNum: number, prior: number): Stepped {
+export function stepPiece(
+  g: IntGenerator, X: bigint[], P: number, len: DecRational, lengthNum: number, prior: number,
+): Stepped {
   const plan = planSteps(g.maxExit, lengthNum, P);
   // Special case: nothing moves under g, or the piece has length 0.
   if (plan.N === 0 || len.m === 0n) return { bound: 0, steps: 0 };

@@ -112,7 +112,7 @@ export function firstExceedFixed(C: readonly bigint[], Q: number, tol: number, w
   return at === undefined ? { unresolved, nodes, switchLoss: 0 } : { at, unresolved, nodes, switchLoss };
 }
 
-/** The same search on decimal coefficients (read into fixed point with Q = 3.33·precision + 16 bits, rounded to nearest). */
+/** The same search on decimal coefficients (read into fixed point, Q = 3.33·precision + 16 bits, to nearest). */
 export function firstExceed(D: DecCtor, c: readonly Dec[], tol: number, wMin: number): Exceed {
   const Q = Math.ceil(D.precision * Math.log2(10)) + 16;
   // Exact conversion: a constructor wide enough for the digits of c_k times 2^Q.

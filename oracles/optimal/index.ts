@@ -41,7 +41,7 @@ import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDi
 import { valueOfPieces } from '../expm/index.js';
 import type { LeftPiece } from '../expm/propagate.js';
 import { decide } from './decide.js';
-import { runSegment, TooManyCells } from './segment.js';
+import { Inconsistent, runSegment, TooManyCells } from './segment.js';
 
 export const OPTIMAL_MAX_STATES = 200;
 export const OPTIMAL_MAX_SEGMENTS = 1000;
@@ -105,6 +105,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
       r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells });
     } catch (e) {
       if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`);
+      if (e instanceof Inconsistent) return refuse(e.message);
       throw e;
     }
     cells += r.cells;

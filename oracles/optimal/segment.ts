@@ -57,8 +57,12 @@ export interface SegmentOptions {
 }
 
 export class TooManyCells extends Error {}
+/** An internal inconsistency: the oracle refuses. */
+export class Inconsistent extends Error {}
 
-export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t0: Dec, T: Dec, o: SegmentOptions): SegmentResult {
+export function runSegment(
+  dm: DecModel, x0: readonly bigint[], d: Int32Array, t0: Dec, T: Dec, o: SegmentOptions,
+): SegmentResult {
   const { n } = dm;
   const { P, E, rows } = o;
   const g = intGenerator(dm, d, E);
@@ -77,7 +81,9 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
   // Advantage numerators to binary fixed point at 2^P: N/(10^E·ν) with ν = νM·2^−νK exactly.
   const { m: nuM, k: nuK } = dyadicOf(o.nu);
   const den10 = pow10(E) * nuM;
-  const toBinary = nuK >= 0 ? (N: bigint): bigint => (N << BigInt(nuK)) / den10 : (N: bigint): bigint => N / (den10 << BigInt(-nuK));
+  const toBinary = nuK >= 0
+    ? (N: bigint): bigint => (N << BigInt(nuK)) / den10
+    : (N: bigint): bigint => N / (den10 << BigInt(-nuK));
   const advDouble = (N: bigint): number => {
     const B = toBinary(N);
     return (B < 0n ? -1 : 1) * toDoubleScaled(B < 0n ? -B : B, P);
@@ -154,7 +160,9 @@ export function runSegment(dm: DecModel, x0: readonly bigint[], d: Int32Array, t
       const tEnd = exactEnd.toSignificantDigits(td);
       const dt = Math.abs(tEnd.minus(exactEnd).toNumber()) * (1 + 1e-9);
       const dSigma = ulp + dt / hn;
-      if (dSigma > o.wMin / 4) throw new Error(`internal: the switching time moved by ${dSigma.toExponential(2)} cells when rounded`);
+      if (dSigma > o.wMin / 4) {
+        throw new Inconsistent(`internal: the switching time moved by ${dSigma.toExponential(2)} cells when rounded`);
+      }
       check(horner(S / 2n));
       // Switching within wMin + dSigma ≤ 1.25·wMin of the crossing: w(tol + L·w) grows by at most 1.25².
       lost += o.nu * hn * switchLoss * 1.5625;
