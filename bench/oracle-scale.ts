@@ -2,14 +2,16 @@
  * Oracle scale: model size, λT (λ = largest exit rate), digits confirmed and seconds, for CTMCs of
  * 100, 300 and 1,000 states (expm oracle, 30 digits asked) and CTMDPs / CTMGs of 30, 60 and 100
  * states (optimal-control oracle, 25 digits asked). Figures from one run on a shared machine.
- * Run: npx tsc -p . && node dist/bench/oracle-scale.js [ctmc|optimal]
+ * Run: npx tsc -p . && node dist/bench/oracle-scale.js [ctmc|ratio|optimal]
  * Models: rings (rate a forward, b backward) and seeded random structures invented here.
  */
 import { buildModel, type ModelObject } from '../corpus/format/build.js';
 import { compile } from '../corpus/format/compile.js';
 import type { Outcome } from '../corpus/format/result.js';
 import { formatTable } from '../harness/check/table.js';
-import { solveExpm } from '../oracles/expm/index.js';
+import { decimalAt, decModel } from '../oracles/common/decModel.js';
+import { solveExpm, valueOfPieces } from '../oracles/expm/index.js';
+import { propagate } from '../oracles/expm/propagate.js';
 import { solveOptimal } from '../oracles/optimal/index.js';
 import { randomStructure, ring } from './oracleStructures.js';
 
@@ -44,6 +46,21 @@ if (which === 'all' || which === 'ctmc') {
     });
     return solveExpm(m, { digits: 30, scheduler: { choices } });
   });
+}
+if (which === 'all' || which === 'ratio') {
+  // The previous path (dense decimal scaling and squaring, at its two precisions 45 and 55) against the
+  // fixed-point steps, on one 60-state CTMC, in the same run.
+  const m = buildModel(randomStructure(60, 1, 3, '2', 60));
+  const pieces = [{ length: '2', choice: Int32Array.from(m.states, (st) => (st.actions.length > 0 ? 0 : -1)) }];
+  const t0 = performance.now();
+  for (const p of [45, 55]) propagate(decModel(m, decimalAt(p)), pieces);
+  const dense = (performance.now() - t0) / 1000;
+  const t1 = performance.now();
+  const steps = valueOfPieces(m, pieces, 30);
+  const fixed = (performance.now() - t1) / 1000;
+  if (typeof steps === 'string') throw new Error(steps);
+  console.log(`60-state CTMC, 30 digits: dense decimal ${dense.toFixed(2)} s, fixed-point steps ${fixed.toFixed(2)} s, ` +
+    `ratio ${(dense / fixed).toFixed(0)}`);
 }
 if (which === 'all' || which === 'optimal') {
   for (const n of [30, 60, 100]) {
