@@ -132,7 +132,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   // every state (an advantage moves by at most 2·stepBound in units of ν); the decimal conversion of
   // the coefficients searched by firstExceed adds a few units of 10^−p (100·u covers it).
   const subopt = nuN * (tolNum + 2 * stepBound + 100 * dm.u) * model.timeBound + lost;
-  if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
+  if (diff > stepBound + cert.bound) {
     return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`);
   }
   const confirmed = confirmedDigits(cert.bound + subopt, diff, digits);

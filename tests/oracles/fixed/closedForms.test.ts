@@ -22,10 +22,10 @@ import { ring } from '../../../bench/oracleStructures.js';
 const D = Decimal.clone({ precision: 60 });
 
 /** p_j(t) for every j asked, sharing the amplitudes and phases of the n Fourier modes. */
-function ringReference(n: number, a: string, b: string, t: string): (j: number) => Decimal {
-  const pi = D.acos(-1);
-  const s = new D(a).plus(b).times(t);
-  const d = new D(a).minus(b).times(t);
+function ringReference(n: number, a: string, b: string, t: string, C: typeof Decimal = D): (j: number) => Decimal {
+  const pi = C.acos(-1);
+  const s = new C(a).plus(b).times(t);
+  const d = new C(a).minus(b).times(t);
   const amp: Decimal[] = [];
   const phase: Decimal[] = [];
   const phis: Decimal[] = [];
@@ -36,7 +36,7 @@ function ringReference(n: number, a: string, b: string, t: string): (j: number) 
     phase.push(d.times(phi.sin()));
   }
   return (j) => {
-    let sum = new D(0);
+    let sum = new C(0);
     for (let m = 0; m < n; m++) sum = sum.plus(amp[m]!.times(phase[m]!.minus(phis[m]!.times(j)).cos()));
     return sum.div(n);
   };
@@ -72,6 +72,20 @@ describe('expm oracle on rings (circulant closed form, DFT diagonalisation)', ()
     for (const s of [934, 910, 960, 500]) {
       const ref = p((n - s) % n);
       expect(new D(out.valuesDecimal![s]!).minus(ref).abs().toNumber()).toBeLessThanOrEqual(1e-30);
+    }
+  });
+
+  it('80 digits asked on 120 states (λT = 30): confirmed at two working precisions, against the closed form', () => {
+    const n = 120;
+    const m = buildModel(ring(n, '2.5', '0.5', '10'));
+    const out = solved(m, 80);
+    expect(out.stats.digitsConfirmed).toBe(80);
+    expect(out.stats.precisionDisagreement!).toBeLessThanOrEqual(0.5e-80);
+    expect(out.stats.aPrioriBound!).toBeLessThanOrEqual(0.5e-80);
+    const D110 = Decimal.clone({ precision: 110 });
+    const p = ringReference(n, '2.5', '0.5', '10', D110);
+    for (const s of [100, 90, 110, 0, 60]) {
+      expect(new D110(out.valuesDecimal![s]!).minus(p((n - s) % n)).abs().lte('1e-80')).toBe(true);
     }
   });
 
