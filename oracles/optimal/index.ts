@@ -102,7 +102,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
     pieces.push({ start: t0, choice: dec.choice });
     let r;
     try {
-      r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells });
+      r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells }, stepBound);
     } catch (e) {
       if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`);
       if (e instanceof Inconsistent) return refuse(e.message);

@@ -60,8 +60,9 @@ export class TooManyCells extends Error {}
 /** An internal inconsistency: the oracle refuses. */
 export class Inconsistent extends Error {}
 
+/** `prior` bounds the error of x0 (for the ‖ṽ‖ ≤ 1 + error factor of the Taylor tail). */
 export function runSegment(
-  dm: DecModel, x0: readonly bigint[], d: Int32Array, t0: Dec, T: Dec, o: SegmentOptions,
+  dm: DecModel, x0: readonly bigint[], d: Int32Array, t0: Dec, T: Dec, o: SegmentOptions, prior = 0,
 ): SegmentResult {
   const { n } = dm;
   const { P, E, rows } = o;
@@ -150,7 +151,7 @@ export function runSegment(
       if (r.at !== undefined && (first === undefined || r.at < first)) first = r.at;
       if (r.at !== undefined) switchLoss += r.switchLoss;
     }
-    bound += (cellRound + tail * (1 + bound)) * (1 + 1e-9);
+    bound += (cellRound + tail * (1 + prior + bound)) * (1 + 1e-9);
     check(V);
     const halfS = 1n << BigInt(P - 1);
     if (first !== undefined) {
