@@ -31,8 +31,7 @@ import { isCtmc, type Model } from '../../corpus/format/types.js';
 import { decimalAt, decModel, parseExact, type Dec } from '../common/decModel.js';
 import { badDigits, confirmedDigits, errorBoundFor, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { bitsForDigits, fixedDiff, fixedToDec } from '../fixed/numbers.js';
-import { propagateFixed, propagateFixedCost } from '../fixed/propagate.js';
-import { planSteps, THETA_STEP } from '../fixed/taylorSteps.js';
+import { pieceGuardBits, propagateFixed, propagateFixedCost } from '../fixed/propagate.js';
 import type { LeftPiece } from './propagate.js';
 
 export interface ExpmOptions {
@@ -79,6 +78,7 @@ export interface PiecesValue {
   readonly precision: number;
   readonly bits: number;
   readonly steps: number;
+  readonly squarings: number;
   readonly terms: number;
 }
 
@@ -89,14 +89,11 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
   let nnz = 0;
   for (const acts of probe.actions) for (const a of acts) nnz += a.target.length;
   const lengths = pieces.map((p) => Number(p.length));
-  // Guard bits: the steps' rounding adds up over N·K terms and grows by e^θ within a step.
+  // Guard bits: rounding errors grow with the number of terms and steps (or squarings) of each piece.
   const P0 = bitsForDigits(digits + 3);
-  let work = 0;
-  for (const len of lengths) {
-    const plan = planSteps(probe.maxExit, len, P0 + 64);
-    work += plan.N * (plan.K + 1);
-  }
-  const P1 = P0 + Math.ceil(Math.log2(work + 1) + THETA_STEP * Math.LOG2E) + 8;
+  let growth = 0;
+  for (const len of lengths) growth += 2 ** pieceGuardBits(n, probe.maxExit, len, P0 + 64);
+  const P1 = P0 + Math.ceil(Math.log2(growth + 1)) + 8;
   const P2 = P1 + 34;
   const cost = propagateFixedCost(n, nnz, probe.maxExit, lengths, P1) +
     propagateFixedCost(n, nnz, probe.maxExit, lengths, P2);
@@ -118,14 +115,17 @@ export function valueOfPieces(model: Model, pieces: readonly LeftPiece[], digits
   const D = decimalAt(Math.ceil(P2 * Math.log10(2)) + 10);
   const values = r2.X.map((x) => fixedToDec(D, x, P2));
   const precision = Math.floor(P2 * Math.log10(2));
-  return { values, bound: r2.bound, diff, precision, bits: P2, steps: r2.steps, terms: r2.maxTerms };
+  const { steps, squarings, maxTerms: terms } = r2;
+  return { values, bound: r2.bound, diff, precision, bits: P2, steps, squarings, terms };
 }
 
 export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
   const started = performance.now();
   const bad = badDigits(opts.digits);
   if (bad) return refuse(bad);
-  if (!opts.scheduler && !isCtmc(model)) return refuse('the model has choices: give a scheduler, or use the optimal oracle');
+  if (!opts.scheduler && !isCtmc(model)) {
+    return refuse('the model has choices: give a scheduler, or use the optimal oracle');
+  }
   const digits = opts.digits;
   const pieces = leftPieces(model, opts.scheduler);
   const r = valueOfPieces(model, pieces, digits);
@@ -151,6 +151,7 @@ export function solveExpm(model: Model, opts: ExpmOptions): Outcome {
       pieces: pieces.length,
       workingBits: r.bits,
       steps: r.steps,
+      squarings: r.squarings,
       taylorTerms: r.terms,
       switches: 0,
       seconds: (performance.now() - started) / 1000,
