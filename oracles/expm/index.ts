@@ -8,9 +8,11 @@
  * fixed-point arithmetic over the sparse generator (../fixed/: rates, step lengths and 1/k are exact
  * rationals, one truncation below 2^−P per entry and term). The bound (../fixed/taylorSteps.ts) is
  * rigorous: Taylor tail by a geometric majorant of Σ θ^k/k!, rounding by a recursion over the terms,
- * errors of the steps added because each exact step is a stochastic matrix.
- * The dense scaling-and-squaring path (taylor.ts, propagate.ts) is kept as an independent check for
- * small models (tests compare the two).
+ * errors of the steps added because each exact step is a stochastic matrix. A small stiff piece
+ * (where s·n³ is cheaper than work linear in λL) is done by scaling and squaring in the same exact
+ * fixed point instead (../fixed/squaring.ts, with its own rigorous row-norm recursion).
+ * The dense decimal scaling-and-squaring path (taylor.ts, propagate.ts) is kept as an independent
+ * check for small models (tests compare the two).
  *
  * Confirmation: the whole computation runs at two working precisions P1 bits (digits + 3 places plus
  * guard bits for the number of terms and the e^θ growth within a step) and P2 = P1 + 34. The rigorous
@@ -21,7 +23,8 @@
  * Special cases first: bad digits, a model with choices and no scheduler, pieces of length 0 and
  * states that do not move (identity).
  * Refuses: models whose estimated work exceeds EXPM_BUDGET BigInt multiply-adds (cost ≈ 2·maxExit·T
- * / θ steps of ~60–90 sparse products each: 1,000 states with λT = 100 are well inside), and answers
+ * / θ steps of ~60–90 sparse products each, or s·n³ for squaring: 1,000 states with λT = 100 are well
+ * inside, and so are a few dozen states with λT = 10^7), and answers
  * with fewer than 10 confirmed digits (or fewer than requested, when fewer than 10 were requested).
  */
 import { compile } from '../../corpus/format/compile.js';
