@@ -4,7 +4,7 @@
  * matrix filled in, check a small corpus in three shards and merge them into one verdict.
  */
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, mkdirSync, mkdtempSync, readFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -51,5 +51,24 @@ describe('examples', () => {
     const verdict = JSON.parse(readFileSync(join(work, 'verdict.json'), 'utf8')) as { verdict: string; models: unknown[] };
     expect(verdict.verdict).toBe('pass');
     expect(verdict.models).toHaveLength(4);
+  });
+});
+
+describe('what an external solver is given', () => {
+  it('the model file, without the reference values of the corpus file', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'crossbound-peek-'));
+    const script = join(dir, 'peek.mjs');
+    writeFileSync(script, [
+      "import { readFileSync } from 'node:fs';",
+      'const m = JSON.parse(readFileSync(process.argv[2], "utf8"));',
+      'const seen = [m.format, m.goal_mode, "expect" in m ? "expect" : "no-expect", Object.keys(m.states).length].join(" ");',
+      'console.log(JSON.stringify({ format: "crossbound-result/1", method: "peek", refused: seen }));',
+    ].join('\n'));
+    const r = crossbound(['check', 'corpus/models/kettle-scale.yaml', '--methods', 'oracle', '--jobs', '1', '--json', join(dir, 'out.json'),
+      '--solver', `node ${script} {model}`]);
+    expect([0, 1]).toContain(r.code);
+    const text = readFileSync(join(dir, 'out.json'), 'utf8');
+    expect(text).toContain('crossbound/1 at no-expect 2');
+    expect(text).not.toContain('crossbound/1 at expect');
   });
 });
