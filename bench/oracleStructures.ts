@@ -23,3 +23,14 @@ export function randomStructure(n: number, acts: number, succ: number, T: string
   return { time_bound: T, goal: [`q${n - 1}`], states };
 }
 
+
+/** A ring of n states: rate a to the next state, b to the previous one; goal state q0, goal mode `at`. */
+export function ring(n: number, a: string, b: string, T: string): ModelObject {
+  const states: NonNullable<ModelObject['states']> = {};
+  for (let i = 0; i < n; i++) {
+    const succ: Record<string, string> = { [`q${(i + 1) % n}`]: a };
+    if (b !== '0') succ[`q${(i + n - 1) % n}`] = b;
+    states[`q${i}`] = { actions: { go: succ } };
+  }
+  return { time_bound: T, goal: ['q0'], goal_mode: 'at', states };
+}

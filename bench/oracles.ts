@@ -1,7 +1,7 @@
 /**
- * Oracle measurements: digits confirmed and seconds per model size (targets: ≥ 30 digits on CTMCs up
- * to 60 states, ≥ 25 on CTMDPs and CTMGs up to 30 states, each ≤ 30 s on this machine), and per
- * corpus model. Run: npm run build && node dist/bench/oracles.js
+ * Oracle measurements: digits confirmed and seconds per model size (small sizes; oracle-scale.ts has
+ * 100–1,000-state CTMCs and 30–100-state CTMDPs and CTMGs), and per corpus model.
+ * Run: npm run build && node dist/bench/oracles.js
  * The sized models are seeded pseudo-random structures invented here (oracleStructures.ts).
  */
 import { buildModel } from '../corpus/format/build.js';

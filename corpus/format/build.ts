@@ -6,7 +6,7 @@
  * calls `buildModel`. Tests and generators may call it directly on objects they made; it still
  * throws a plain Error on a broken reference, so that a bad object never becomes a bad model.
  */
-import { Decimal } from 'decimal.js';
+import { exactSum, readDecimal } from './numbers.js';
 import type { ActionDecl, Expectation, GoalMode, Model, Owner, StateDecl, Transition } from './types.js';
 
 export type RateInput = number | string;
@@ -26,10 +26,11 @@ export interface ModelObject {
   generate?: Record<string, unknown>;
 }
 
+/** A rate read by the one number grammar (numbers.ts): its nearest double and its exact text. */
 function rateOf(r: RateInput): { rate: number; rateText: string } {
-  const rate = typeof r === 'number' ? r : Number(r);
-  if (!Number.isFinite(rate) || rate < 0) throw new Error(`rate ${String(r)} is not a finite number ≥ 0`);
-  return { rate, rateText: typeof r === 'number' ? String(r) : r.trim() };
+  const x = readDecimal(r);
+  if (!x.ok || x.value < 0) throw new Error(`rate ${String(r)} is not a finite number ≥ 0`);
+  return { rate: x.value, rateText: x.text };
 }
 
 export function buildModel(obj: ModelObject, fallbackName = 'model'): Model {
@@ -74,8 +75,9 @@ export function buildModel(obj: ModelObject, fallbackName = 'model'): Model {
       const prev = m.get(ti);
       const add = rateOf(r);
       // Repeated rows for the same (state, action, successor) add up; the text is the exact decimal sum.
-      const sum = prev ? new Decimal(prev.rateText).plus(add.rateText).toString() : undefined;
-      m.set(ti, sum !== undefined ? { rate: Number(sum), rateText: sum } : add);
+      const sum = prev ? exactSum(prev.rateText, add.rateText) : undefined;
+      if (sum && !sum.ok) throw new Error(`repeated rows ${s} ${a} ${t} sum to more than the largest double`);
+      m.set(ti, sum ? { rate: sum.value, rateText: sum.text } : add);
     }
     for (const [s, o] of Object.entries(obj.owners ?? {})) {
       const si = index.get(s);

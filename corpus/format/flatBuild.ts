@@ -6,15 +6,13 @@
  * (state, action, successor) are merged into one transition whose rate text is the exact decimal
  * sum and whose rate is that sum correctly rounded.
  */
-import { Decimal } from 'decimal.js';
 import { got } from './errors.js';
-import { readDecimal } from './numbers.js';
+import { exactSum } from './numbers.js';
 import { mapping, NAME, NAME_RULE, oneOf, rate } from './rules.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
 import type { ActionDecl, Owner, StateDecl, Transition } from './types.js';
 
-const Exact = Decimal.clone({ precision: 1e9 });
 /** Distinct action names are numbered below this bound, so that (state, action) fits one number key. */
 const ACTION_CAP = 2 ** 21;
 
@@ -117,7 +115,6 @@ export function buildFlat(p: Parsed, v: unknown, ownersRaw: unknown): FlatBuilt 
   const slot = new Int32Array(S).fill(-1);
   for (let g = 0; g < G; g++) {
     const succ: Transition[] = [];
-    const exact: (string | undefined)[] = [];
     for (let k = groupStart[g]!; k < groupStart[g + 1]!; k++) {
       const i = order[k]!;
       const t = rowTarget[i]!;
@@ -125,16 +122,14 @@ export function buildFlat(p: Parsed, v: unknown, ownersRaw: unknown): FlatBuilt 
       const text = typeof raw === 'number' ? String(raw) : (raw as string);
       const at = slot[t]!;
       if (at >= 0 && at < succ.length && succ[at]!.target === t) {
-        exact[at] = new Exact(exact[at] ?? succ[at]!.rateText).plus(new Exact(text)).toString();
+        const sum = exactSum(succ[at]!.rateText, text);
+        const over = '(the repeated rows of this transition sum to more than the largest double)';
+        if (!sum.ok) fail(p, ['transitions', i, 3], 'rate must be a finite number ≥ 0', over);
+        succ[at] = { target: t, rate: sum.value, rateText: sum.text };
       } else {
         slot[t] = succ.length;
         succ.push({ target: t, rate: rowRate[i]!, rateText: text });
-        exact.push(undefined);
       }
-    }
-    for (let j = 0; j < succ.length; j++) {
-      const e = exact[j];
-      if (e !== undefined) succ[j] = { target: succ[j]!.target, rate: readRate(e), rateText: e };
     }
     actions[groupState.data[g]!]!.push({ name: actNames[groupAct.data[g]!]!, successors: succ });
   }
@@ -143,9 +138,4 @@ export function buildFlat(p: Parsed, v: unknown, ownersRaw: unknown): FlatBuilt 
     return o ? { name, owner: o, actions: actions[s]! } : { name, actions: actions[s]! };
   });
   return { index, states };
-}
-
-function readRate(text: string): number {
-  const r = readDecimal(text);
-  return r.ok ? r.value : Number.NaN;
 }

@@ -4,7 +4,7 @@
  * `file:line:column: rule`, and nothing is built. Warnings (an empty goal, an action without
  * successors) are returned by the `...WithWarnings` variants.
  *
- * Limits (limits.ts): files up to 256 MiB (JSON; YAML up to 32 MiB), nesting up to 64 levels,
+ * Limits (limits.ts): files up to 256 MiB (JSON; YAML up to 8 MiB and 500,000 nodes), nesting up to 64 levels,
  * 1000 YAML alias expansions.
  */
 import { basename } from 'node:path';
@@ -18,6 +18,7 @@ import { validateCommon, validateModel } from './validate.js';
 import type { Validated } from './validate.js';
 import { validateFlat, validateStates } from './validateForms.js';
 import { GeneratorError, generateModel } from '../generators/index.js';
+import { readDecimal } from './numbers.js';
 import { isMapping } from './rules.js';
 import type { FlatBuilt } from './flatBuild.js';
 
@@ -106,14 +107,15 @@ function expandGenerate(p: Parsed, top: Record<string, unknown>): Validated {
 
 /** The `Model` of a validated object whose states were built by the flat fast path (as buildModel would). */
 function assemble(obj: ModelObject, pre: FlatBuilt, fallbackName: string): Model {
-  const T = obj.time_bound;
+  const T = readDecimal(obj.time_bound);
+  if (!T.ok) throw new Error(`time_bound ${String(obj.time_bound)} is not a finite number`);
   const goal = [...new Set(obj.goal.map((g) => pre.index.get(g)!))].sort((x, y) => x - y);
   const initial = obj.initial === undefined ? undefined : pre.index.get(obj.initial);
   return {
     name: obj.name ?? fallbackName,
     ...(obj.description !== undefined ? { description: obj.description } : {}),
-    timeBound: Number(T),
-    timeBoundText: typeof T === 'number' ? String(T) : T.trim(),
+    timeBound: T.value,
+    timeBoundText: T.text,
     goalMode: obj.goal_mode ?? 'within',
     goal,
     ...(initial !== undefined ? { initial } : {}),

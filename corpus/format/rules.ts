@@ -15,6 +15,15 @@ export function isMapping(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
+/**
+ * An empty mapping without a prototype, for mappings keyed by names from the input: a state called
+ * `__proto__` stays an ordinary key, and V8 keeps such an object in dictionary mode instead of
+ * making a hidden class per distinct first key (which costs time and memory per state name).
+ */
+export function record<T>(): Record<string, T> {
+  return Object.create(null) as Record<string, T>;
+}
+
 /** The value at `path` must be a mapping (or null/absent when `nullable`, read as empty). */
 export function mapping(p: Parsed, path: Path, v: unknown, what: string, nullable = false): Record<string, unknown> {
   if (nullable && (v === null || v === undefined)) return {};

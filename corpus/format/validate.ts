@@ -6,10 +6,10 @@
 import type { ModelObject } from './build.js';
 import { got } from './errors.js';
 import { isDecimalString, readDecimal } from './numbers.js';
-import { decimal, mapping, oneOf, onlyKeys, str } from './rules.js';
+import { decimal, mapping, oneOf, onlyKeys, record, str } from './rules.js';
 import { fail } from './source.js';
 import type { Parsed } from './source.js';
-import { validateFlat, validateStates, warnAt } from './validateForms.js';
+import { validateFlat, validateStates, warn, warnAt } from './validateForms.js';
 import type { FormResult } from './validateForms.js';
 import type { FlatBuilt } from './flatBuild.js';
 
@@ -54,7 +54,7 @@ export function validateCommon(p: Parsed, top: Record<string, unknown>, form: Fo
   const inGoal = new Set<string>();
   top.goal.forEach((g: unknown, i: number) => {
     if (typeof g !== 'string' || !form.declared.has(g)) fail(p, ['goal', i], 'goal must name declared states', got(g));
-    if (inGoal.has(g)) warnings.push(warnAt(p, ['goal', i], `goal state '${g}' is listed twice`));
+    if (inGoal.has(g)) warn(p, warnings, ['goal', i], `goal state '${g}' is listed twice`);
     inGoal.add(g);
     goal.push(g);
   });
@@ -78,7 +78,7 @@ function validateExpect(p: Parsed, v: unknown, declared: FormResult['declared'])
   onlyKeys(p, ['expect'], e, ['values', 'tolerance', 'source'], 'expect');
   for (const k of ['values', 'tolerance', 'source']) if (e[k] === undefined) fail(p, ['expect'], `expect needs values, tolerance and source`, `(${k} is missing)`, 'key');
   const vals = mapping(p, ['expect', 'values'], e.values, 'expect.values');
-  const values: Record<string, string> = {};
+  const values: Record<string, string> = record();
   for (const s in vals) {
     if (!declared.has(s)) fail(p, ['expect', 'values', s], 'expect.values must name declared states', got(s), 'key');
     const x = vals[s];

@@ -9,7 +9,7 @@ import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, compareRange, compareWithReference, formatRatio } from '../compare/index.js';
 import { runExternalMethod, solverLabel, type DefaultBound } from './external.js';
 import { failed, ran } from './make.js';
-import { CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
+import { CHECK_DEFECT_MAX_WORK, CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
 import { reproduceCommand } from './reproduce.js';
 import { shownLabel, type CheckResult, type MethodResult, type ModelReport, type SolvedMethod } from './types.js';
@@ -42,6 +42,7 @@ export async function checkModel(file: string, model: Model, warnings: string[],
     oracleDigits: opts.oracleDigits ?? 20,
     eulerMaxWork: CHECK_EULER_MAX_WORK,
     kstepMaxIntervals: Math.max(CHECK_KSTEP_MAX_INTERVALS, Math.floor(CHECK_KSTEP_WORK / (compiled.nStates + compiled.nTransitions))),
+    defectMaxWork: CHECK_DEFECT_MAX_WORK,
   };
   const methods: MethodResult[] = [];
   const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;

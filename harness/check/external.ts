@@ -38,7 +38,9 @@ export async function runExternalMethod(
   opts: { precision: number; timeoutMs?: number; defaultBound?: DefaultBound },
 ): Promise<MethodResult> {
   const id = { label: solverLabel(template, index), family: `solver#${index + 1}` as const };
-  const out = await runExternal(template, exportJson(model), compiled.stateNames, {
+  // The solver under test never sees the model's reference values.
+  const { expect: _reference, ...given } = exportJson(model);
+  const out = await runExternal(template, given, compiled.stateNames, {
     precision: opts.precision,
     timeBound: model.timeBound,
     timeoutMs: opts.timeoutMs ?? 60_000,

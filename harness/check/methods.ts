@@ -1,6 +1,6 @@
 /**
  * The project's own methods as the harness runs them, by label: 'uniformization', 'euler',
- * 'kstep:K', 'oracle'. Each returns a MethodResult (plain data) and never throws for a numerical
+ * 'kstep:K', 'defect', 'oracle'. Each returns a MethodResult (plain data) and never throws for a numerical
  * reason: an exception inside a solver is reported as a fault, so one bad model cannot stop a run.
  *
  * A method that refuses at the requested precision with code work-cap or precision-floor (Euler on a
@@ -13,13 +13,14 @@ import type { Outcome, RefusalCode, Solved } from '../../corpus/format/result.js
 import type { Scheduler } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveOracle } from '../../oracles/index.js';
+import { solveDefect } from '../../solvers/defect/index.js';
 import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
 import { VARIANTS, variantByName } from '../selftest/variants.js';
 import type { Family, MethodResult, SolvedMethod } from './types.js';
 
-export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'oracle'] as const;
+export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'defect', 'oracle'] as const;
 
 export interface MethodContext {
   readonly model: Model;
@@ -34,15 +35,18 @@ export interface MethodContext {
    */
   readonly eulerMaxWork?: number;
   readonly kstepMaxIntervals?: number;
+  /** The defect method's work: step attempts × (degree + 1) × (states + transitions). */
+  readonly defectMaxWork?: number;
 }
 
 export const CHECK_EULER_MAX_WORK = 3e7;
 /** At least this many intervals, and up to CHECK_KSTEP_WORK / (states + transitions). */
 export const CHECK_KSTEP_MAX_INTERVALS = 2e4;
 export const CHECK_KSTEP_WORK = 1e7;
+export const CHECK_DEFECT_MAX_WORK = 2e8;
 
 /** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
-export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'oracle' | 'variant'; k?: number } {
+export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'defect' | 'oracle' | 'variant'; k?: number } {
   if (label.startsWith('variant:')) {
     if (!variantByName(label.slice(8))) throw new Error(`unknown broken variant '${label.slice(8)}' (known: ${VARIANTS.map((v) => v.name).join(', ')})`);
     return { method: 'variant' };
@@ -53,8 +57,8 @@ export function parseMethodLabel(label: string): { method: 'uniformization' | 'e
     if (!(k >= 1 && k <= 8)) throw new Error(`kstep order must be between 1 and 8 (got ${m[1]})`);
     return { method: 'kstep', k };
   }
-  if (label === 'uniformization' || label === 'euler' || label === 'oracle') return { method: label };
-  throw new Error(`unknown method '${label}' (known: uniformization, euler, kstep:K, oracle)`);
+  if (label === 'uniformization' || label === 'euler' || label === 'defect' || label === 'oracle') return { method: label };
+  throw new Error(`unknown method '${label}' (known: uniformization, euler, kstep:K, defect, oracle)`);
 }
 
 export function solveWith(label: string, ctx: MethodContext, precision: number): Outcome {
@@ -66,6 +70,8 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
       return solveEuler(ctx.compiled, ctx.eulerMaxWork ? { precision, maxWork: ctx.eulerMaxWork } : { precision });
     case 'kstep':
       return solveKstep(ctx.compiled, ctx.kstepMaxIntervals ? { precision, k: k!, maxIntervals: ctx.kstepMaxIntervals } : { precision, k: k! });
+    case 'defect':
+      return solveDefect(ctx.compiled, ctx.defectMaxWork ? { precision, maxWork: ctx.defectMaxWork } : { precision });
     case 'variant':
       return variantByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':

@@ -3,6 +3,7 @@ import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { runCheck, parseShard } from '../check/index.js';
+import { INTERNAL_METHODS } from '../check/methods.js';
 import { parseMethodList } from './fuzz.js';
 import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
@@ -42,7 +43,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .argument('[paths...]', 'model files or folders (searched recursively)', ['corpus'])
     .option('--solver <template>', "an external solver, e.g. 'mysolver {model} --eps {precision}' (repeatable; placeholders {model} {precision} {time})", collect, [])
     .option('--precision <p>', 'requested absolute error for every method', '1e-6')
-    .option('--methods <list>', 'own methods to run, comma-separated (uniformization, euler, kstep:1..kstep:8, oracle), or none', 'uniformization,euler,kstep:1,kstep:2,kstep:3,kstep:4,oracle')
+    .option('--methods <list>', 'own methods to run, comma-separated (uniformization, euler, kstep:1..kstep:8, defect, oracle), or none', INTERNAL_METHODS.join(','))
     .option('--oracle-digits <n>', 'digits asked of the high-precision oracle', '20')
     .option('--timeout <seconds>', 'time limit of one external solver run', '60')
     .option('--json <file>', 'write every result and verdict as JSON')

@@ -21,7 +21,7 @@ export function registerSolve(program: Command, setExit: SetExit): void {
     .command('solve')
     .description('solve one model with one method and print v_s(T) for every state')
     .argument('<model>', 'model file (crossbound/1, YAML or JSON)')
-    .addOption(new Option('--method <method>', 'solution method').choices(['uniformization', 'euler', 'kstep', 'oracle']).makeOptionMandatory())
+    .addOption(new Option('--method <method>', 'solution method').choices(['uniformization', 'euler', 'kstep', 'defect', 'oracle']).makeOptionMandatory())
     .option('--precision <p>', 'requested absolute error in every state; for oracle, 1e-30 asks for 30 digits', '1e-6')
     .option('--k <k>', 'order of the k-step scheme', '3')
     .option('--scheduler <file>', 'a fixed scheduler (crossbound-scheduler/1), for uniformization and oracle')

@@ -1,10 +1,11 @@
 /**
  * The model read exactly into decimal arithmetic, for the high-precision oracles.
  *
- * Every rate is parsed from its exact decimal text (`rateText`; the flat form may join repeated rows
- * as "a+b", which is summed). Parsing is exact: a decimal.js constructor never rounds. Only the
- * exit rates E(s,a) = Σ_{s'≠s} R(s,a,s') are rounded, with relative error ≤ m·u (m terms, unit
- * roundoff u = 5·10^-p at p significant digits), which the callers fold into their a priori bounds.
+ * Every rate and the time bound are read from their exact decimal text (`rateText`, `timeBoundText`)
+ * by the one number grammar of corpus/format/numbers.ts, the grammar the loader checked. Reading is
+ * exact: a decimal.js string constructor never rounds. Only the exit rates E(s,a) = Σ_{s'≠s} R(s,a,s')
+ * are rounded, with relative error ≤ m·u (m terms, unit roundoff u = 5·10^-p at p significant
+ * digits), which the callers fold into their a priori bounds.
  *
  * Self-loops and zero rates are dropped: a rate from s to s multiplies v_s − v_s = 0 in the Bellman
  * right-hand side. In goal mode `within` goal states are made absorbing (no actions) and the
@@ -13,6 +14,7 @@
  * Nothing here is shared with the fast solvers: the oracles must stay an independent computation.
  */
 import { Decimal } from 'decimal.js';
+import { readExact } from '../../corpus/format/numbers.js';
 import type { Model } from '../../corpus/format/types.js';
 
 export type Dec = Decimal;
@@ -52,17 +54,9 @@ export function decimalAt(precision: number): DecCtor {
   return Decimal.clone({ precision, rounding: Decimal.ROUND_HALF_UP, toExpNeg: -9e15, toExpPos: 9e15 });
 }
 
-/** Exact value of a rate text such as "0.1", "3e-4" or "0.5+0.25". */
+/** Exact value of a decimal text such as "0.1", "3e-4" or "1e+0" (refused outside the model grammar). */
 export function parseExact(D: DecCtor, text: string): Dec {
-  const parts = text.split('+').filter((p) => p.trim() !== '');
-  if (parts.length === 0) throw new Error(`empty rate text '${text}'`);
-  let sum: Dec | undefined;
-  for (const p of parts) {
-    // Exact while the sum fits in the working precision; otherwise rounded once per term (≤ u relative).
-    const x = new D(p.trim());
-    sum = sum === undefined ? x : x.plus(sum);
-  }
-  return sum!;
+  return readExact(D, text);
 }
 
 export function decModel(model: Model, D: DecCtor): DecModel {

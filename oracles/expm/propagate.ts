@@ -1,4 +1,6 @@
 /**
+ * The dense path, kept as an independent check of the fixed-point Taylor steps (../fixed/) on small
+ * models (tests compare the two; the oracle itself uses the fixed-point path).
  * The value of a fixed (piecewise constant) scheduler: with time left running from 0 to T, each
  * piece of constant decisions multiplies the vector by its own exact exponential,
  *   v(t_{i+1}) = exp(Q_{d_i} (t_{i+1} − t_i)) v(t_i),   v(0) = terminal vector,
@@ -6,7 +8,7 @@
  * taylor.ts). The exact evolution over each piece is a stochastic matrix, hence non-expansive in
  * the sup norm, so the errors of the pieces add: ‖ṽ − v‖ ≤ Σ_i (δ_i + (n+1)u(1+δ_i))·‖ṽ_i‖.
  */
-import type { Dec, DecModel } from '../common/decModel.js';
+import { parseExact, type Dec, type DecModel } from '../common/decModel.js';
 import { applyDense, expOfGenerator } from './taylor.js';
 
 /** A piece of constant decisions, in order of time left; `length` is an exact decimal text. */
@@ -30,7 +32,7 @@ export function propagate(dm: DecModel, pieces: readonly LeftPiece[]): Propagate
   let squarings = 0;
   let terms = 0;
   for (const piece of pieces) {
-    const len = new dm.D(piece.length);
+    const len = parseExact(dm.D, piece.length);
     if (len.isZero()) continue;
     const e = expOfGenerator(dm, piece.choice, len);
     const { y, added } = applyDense(e, x, dm.n, dm.u, zero);
@@ -41,19 +43,4 @@ export function propagate(dm: DecModel, pieces: readonly LeftPiece[]): Propagate
     terms = Math.max(terms, e.terms);
   }
   return { values: x, bound, squarings, terms };
-}
-
-/** Estimated decimal multiply-adds of `propagate` (for refusing before starting). */
-export function propagateCost(n: number, nnz: number, maxExit: number, lengths: readonly number[], precision: number): number {
-  let ops = 0;
-  for (const len of lengths) {
-    const nuT = 2 * maxExit * len;
-    if (!(nuT > 0)) continue;
-    let s = 0;
-    while (nuT / 2 ** s > 0.5) s++;
-    const K = Math.ceil(precision * 0.9);
-    ops += s * n ** 3 + K * n * (nnz + n) + n * n;
-  }
-  // Decimal cost grows with the number of 7-digit words; calibrated at ~50 digits.
-  return ops * Math.max(1, precision / 50);
 }

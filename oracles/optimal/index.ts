@@ -1,42 +1,50 @@
 /**
- * Oracle `optimal`: optimal values of small CTMDPs and CTMGs in high precision, with the optimal
- * scheduler and a certificate.
+ * Oracle `optimal`: optimal values of CTMDPs and CTMGs (up to a few hundred states and transitions)
+ * in high precision, with the optimal scheduler and a certificate.
  *
  * Method (finite optimal control: B. L. Miller, SIAM J. Control 6(2), 1968, for CTMDPs; M. N. Rabe
  * and S. Schewe, Acta Informatica 48, 2011, for games; both from memory): go forward in time left
  * from 0 to T. At a segment start the decisions follow from the lexicographic comparison of
- * derivatives (decide.ts); on the segment the values solve the linear ODE v' = Q_d v, stepped by
- * Taylor series on a grid (segment.ts); the next switch is the first point where an advantage
- * exceeds the tie tolerance, found by a certified bisection that cannot skip a positive excursion
- * (advantage.ts).
+ * derivatives (decide.ts, decimal arithmetic at p digits); on the segment the values solve the linear
+ * ODE v' = Q_d v, stepped by Taylor series on a grid in exact fixed-point arithmetic with P bits
+ * (segment.ts: sparse integer products, one truncation per entry and term, rigorous tail and rounding
+ * bound); the next switch is the first point where an advantage exceeds the tie tolerance, certified
+ * exactly in integers for most cells and otherwise found by a certified bisection that cannot skip a
+ * positive excursion (advantage.ts).
  *
  * Bound. The values reported are those of the emitted scheduler, recomputed by the exact
- * exponential (oracles/expm, two working precisions) with its a priori bound. The scheduler is
- * optimal up to the tie tolerance: on every cell each advantage is certified ≤ tol·ν, so the
- * scheduler's value satisfies the Bellman equations with a residual ≤ tol·ν, and since the
- * Bellman flow is non-expansive in the sup norm its value is within tol·ν·T of the optimum; plus the
- * `lost` terms for uncertified cells and for switching up to wMin late. Digits confirmed require
+ * exponential (oracles/expm: fixed-point Taylor steps, two working precisions) with its rigorous
+ * bound. The scheduler is optimal up to the tie tolerance: on every cell each advantage of the stepped
+ * values is certified ≤ tol·ν; the stepped values are within stepBound of the scheduler's own value,
+ * which moves an advantage by at most 2·stepBound·ν (‖q_a‖∞ ≤ ν/2·2 for each of the two rows); so
+ * the scheduler's value satisfies the Bellman equations with a residual ≤ ν·(tol + 2·stepBound + 100u)
+ * (100u for the decimal tie tests), and since the Bellman flow is non-expansive in the sup norm its
+ * value is within T times that of the optimum; plus the `lost` terms for uncertified cells and for
+ * switching up to 1.25·wMin late. Digits confirmed require
  * that this bound AND the disagreement between the Taylor stepping and the exponential are below
  * half a unit of the last place.
  *
  * Certificate (stats): certificateDisagreement (stepping vs exponential), bellmanViolation (largest
  * opt_a g_a − g_chosen, sign-adjusted, on the cell starts and midpoints of every segment).
  *
- * Refuses: more than 30 states, more than 200 segments, more than 20000 grid cells in all (stiff
- * models with large ν·T), fewer than 10 confirmed digits, and any internal inconsistency.
+ * Refuses: more than 200 states, more than 1000 segments, more than 20000 grid cells in all (stiff
+ * models with large ν·T; the cells bound the work: each costs K ≈ 30–60 sparse products), fewer than
+ * 10 confirmed digits, and any internal inconsistency.
  */
 import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
-import { decimalAt, decModel, type Dec } from '../common/decModel.js';
+import { decimalAt, decModel, parseExact, type Dec } from '../common/decModel.js';
+import { commonExponent, intRows } from '../fixed/generator.js';
+import { bitsForDigits, fixedToDec } from '../fixed/numbers.js';
 import { badDigits, confirmedDigits, errorBoundFor, maxAbsDiff, MIN_DIGITS, toDigits } from '../common/digits.js';
 import { valueOfPieces } from '../expm/index.js';
 import type { LeftPiece } from '../expm/propagate.js';
 import { decide } from './decide.js';
-import { runSegment, TooManyCells } from './segment.js';
+import { Inconsistent, runSegment, TooManyCells } from './segment.js';
 
-export const OPTIMAL_MAX_STATES = 30;
-export const OPTIMAL_MAX_SEGMENTS = 200;
+export const OPTIMAL_MAX_STATES = 200;
+export const OPTIMAL_MAX_SEGMENTS = 1000;
 export const OPTIMAL_MAX_CELLS = 20_000;
 
 const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: 'oracle', reason, code });
@@ -58,14 +66,22 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const p = digits + 14 + Math.ceil(Math.log10(1 + nu * model.timeBound)) + Math.ceil(Math.log10(n + 1));
   const D = decimalAt(p);
   const dm = decModel(model, D);
-  const T = new D(model.timeBoundText);
+  // Fixed point: P bits (8 guard bits for the e^θ growth within a cell, θ ≤ 4); times in DT, exactly.
+  const P = bitsForDigits(p) + 8;
+  const DT = decimalAt(3 * P + 100);
+  const T = parseExact(DT, model.timeBoundText);
+  const E = commonExponent(dm);
+  const rows = intRows(dm, E);
   const tolNum = 10 ** -(p - 8);
   const tol = new D(10).pow(-(p - 8));
-  const seg = { nu, tol: tolNum, wMin: 10 ** -(p - 6), maxCells: OPTIMAL_MAX_CELLS };
+  // Normalisation of advantages (any positive number; 2·max exit rate, or 1 when nothing moves).
+  const nuN = nu > 0 ? nu : 1;
+  const seg = { nu: nuN, tol: tolNum, wMin: 10 ** -(p - 6), P, E, rows, DT };
 
   const pieces: Piece[] = [];
-  let x: Dec[] = [...dm.terminal];
-  let t0 = new D(0);
+  const one = 1n << BigInt(P);
+  let x: bigint[] = dm.terminal.map((v) => (v.isZero() ? 0n : one));
+  let t0 = new DT(0);
   let prev: Int32Array = Int32Array.from(dm.actions, (a) => (a.length > 0 ? 0 : -1));
   let switches = 0;
   let cells = 0;
@@ -74,7 +90,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   let violation = 0;
   let order = 0;
   while (t0.lt(T)) {
-    const dec = decide(dm, x, prev, nu, tol);
+    const dec = decide(dm, x.map((v) => fixedToDec(D, v, P)), prev, nu, tol);
     order = Math.max(order, dec.order);
     if (pieces.length > 0) {
       let changed = 0;
@@ -86,9 +102,10 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
     pieces.push({ start: t0, choice: dec.choice });
     let r;
     try {
-      r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells });
+      r = runSegment(dm, x, dec.choice, t0, T, { ...seg, maxCells: OPTIMAL_MAX_CELLS - cells }, stepBound);
     } catch (e) {
       if (e instanceof TooManyCells) return refuse(`too stiff for the optimal oracle: ${e.message} (limit ${OPTIMAL_MAX_CELLS} in all)`, 'work-cap');
+      if (e instanceof Inconsistent) return refuse(e.message, 'internal');
       throw e;
     }
     cells += r.cells;
@@ -110,9 +127,12 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
   const cert = valueOfPieces(model, left, digits);
   const certSeconds = (performance.now() - certStarted) / 1000;
   if ('code' in cert) return refuse(`certificate: ${cert.reason}`, cert.code);
-  const diff = maxAbsDiff(x, cert.values);
-  const subopt = nu * tolNum * model.timeBound + lost;
-  if (diff > (stepBound + cert.bound) * 1.5 + 1e-300) {
+  const diff = maxAbsDiff(x.map((v) => fixedToDec(D, v, P)), cert.values);
+  // Advantages were certified on the stepped values, within stepBound of the scheduler's own value in
+  // every state (an advantage moves by at most 2·stepBound in units of ν); the decimal conversion of
+  // the coefficients searched by firstExceed adds a few units of 10^−p (100·u covers it).
+  const subopt = nuN * (tolNum + 2 * stepBound + 100 * dm.u) * model.timeBound + lost;
+  if (diff > stepBound + cert.bound) {
     return refuse(`internal: the stepped value and the exponential of the scheduler disagree by ${diff.toExponential(2)}`, 'internal');
   }
   const confirmed = confirmedDigits(cert.bound + subopt, diff, digits);
@@ -131,6 +151,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
       digitsRequested: digits,
       digitsConfirmed: confirmed,
       workingPrecision: p,
+      workingBits: P,
       switches,
       segments: pieces.length,
       cells,

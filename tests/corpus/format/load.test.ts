@@ -91,6 +91,17 @@ describe('warnings', () => {
     expect(twice.warnings).toEqual(["w.yaml:3:11: warning: goal state 'b' is listed twice"]);
     expect(twice.model.goal).toEqual([0]);
   });
+  test('many warnings: the first 20 with positions, one line for the rest, the empty goal always', () => {
+    // 5,000 actions without successors: each located warning costs a pass over the text, so only 20 are located.
+    const states = Array.from({ length: 5000 }, (_, i) => `"s${i}":{"actions":{"idle":{}}}`).join(',\n');
+    const text = `{"format":"crossbound/1","time_bound":1,"goal":[],"states":{\n${states}\n}}`;
+    const { warnings } = loadModelTextWithWarnings(text, 'many.json');
+    expect(warnings.length).toBe(22);
+    expect(warnings[0]).toBe("many.json:2:18: warning: action 's0.idle' has no successors (it leaves the state unchanged)");
+    expect(warnings[19]).toBe("many.json:21:19: warning: action 's19.idle' has no successors (it leaves the state unchanged)");
+    expect(warnings[20]).toBe('many.json: warning: further warnings not shown (only the first 20 are listed)');
+    expect(warnings[21]).toBe('many.json:1:41: warning: the goal is empty (every value is 0)');
+  });
 });
 
 describe('generated form', () => {
