@@ -31,7 +31,7 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
     .option('--seed <s>', 'seed of the run (the same seed replays it exactly)', '1')
     .option('--max-states <m>', 'largest number of states of a random model', '8')
     .option('--precision <p>', 'requested precision of the methods under test', '1e-5')
-    .option('--methods <list>', 'own methods under test, comma-separated, or none', 'uniformization,euler,kstep:1,kstep:2,kstep:3')
+    .option('--methods <list>', 'own methods under test, comma-separated, or none', 'uniformization,euler,kstep:1,kstep:2,kstep:3,defect')
     .option('--solver <template>', 'an external solver (repeatable)', collect, [])
     .option('--timeout <seconds>', 'time limit of one external solver run', '60')
     .option('--save <dir>', 'folder for the shrunk counterexample', 'corpus/regressions')
