@@ -48,7 +48,11 @@ export function renameStates(model: Model): Transformed {
 
 export function addUnreachable(model: Model): Transformed {
   const n = model.states.length;
-  const to = (target: number, rate: number): ActionDecl['successors'][number] => ({ target, rate, rateText: String(rate) });
+  // Rates in units of 1/T, so that the copy's λT stays that of the model at any scale of its rates.
+  const to = (target: number, r: number): ActionDecl['successors'][number] => {
+    const rate = r / model.timeBound;
+    return { target, rate, rateText: String(rate) };
+  };
   const extra: StateDecl[] = [
     { name: 'zz_unreachable_a', owner: 'max', actions: [{ name: 'x', successors: [to(0, 2.5), to(n + 1, 1)] }, { name: 'y', successors: [to(n - 1, 0.5)] }] },
     { name: 'zz_unreachable_b', actions: [{ name: 'z', successors: [to(n, 3)] }] },
