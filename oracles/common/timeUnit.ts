@@ -12,10 +12,16 @@ import type { Model } from '../../corpus/format/types.js';
 /** Enough digits for any mantissa the number grammar admits in a file of the size limit. */
 const D = Decimal.clone({ precision: 1e6 });
 
-/** Decimal exponent k with max exit rate · 10^−k in [0.1, 10); 0 when nothing moves or it is moderate already. */
+/**
+ * Decimal exponent k with max exit rate · 10^−k in [0.1, 10); 0 when nothing moves or it is moderate
+ * already. Goal states in mode `within` are frozen (the oracles drop their actions), so their rates,
+ * however large, do not set the unit.
+ */
 export function timeUnitExponent(model: Model): number {
+  const frozen = new Set(model.goalMode === 'within' ? model.goal : []);
   let maxExit = 0;
   model.states.forEach((s, i) => {
+    if (frozen.has(i)) return;
     for (const a of s.actions) {
       let e = 0;
       for (const t of a.successors) if (t.target !== i) e += t.rate;
