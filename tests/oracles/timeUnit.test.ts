@@ -9,6 +9,7 @@ import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { buildModel, type ModelObject } from '../../corpus/format/build.js';
 import { loadModelFile } from '../../corpus/format/load.js';
+import { timeUnitExponent } from '../../oracles/common/timeUnit.js';
 import { solveOracle } from '../../oracles/index.js';
 
 const game = (e: number): ModelObject => ({
@@ -41,5 +42,19 @@ describe('oracles in their own time unit', () => {
     const D = Decimal.clone({ precision: 40 });
     const exact = new D(1).minus(new D('-0.020002').exp());
     expect(new D(o.valuesDecimal![0]!).minus(exact).abs().toNumber()).toBeLessThan(1e-25);
+  });
+});
+
+describe('the time unit ignores frozen goal states', () => {
+  it('a goal with a rate of 1e12 out of it (mode within) does not set the unit; the values stay those of the unscaled model', () => {
+    const frozen = (e: number): ModelObject => {
+      const m = game(e) as { states: Record<string, unknown> };
+      return { ...game(e), states: { ...m.states, door: { actions: { boom: { z: '1e12' } } }, z: {} } } as ModelObject;
+    };
+    expect(timeUnitExponent(buildModel(frozen(-6)))).toBe(-6);
+    const base = solveOracle(buildModel(game(0)), { digits: 25 });
+    const o = solveOracle(buildModel(frozen(-6)), { digits: 25 });
+    if (base.kind !== 'solved' || o.kind !== 'solved') throw new Error('refused');
+    expect(o.valuesDecimal!.slice(0, 3)).toEqual(base.valuesDecimal);
   });
 });
