@@ -17,7 +17,7 @@ import { solveDefect } from '../../solvers/defect/index.js';
 import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
-import { VARIANTS, variantByName } from '../selftest/variants.js';
+import { plantedByName, plantedNames } from './planted.js';
 import type { Family, MethodResult, SolvedMethod } from './types.js';
 
 export const INTERNAL_METHODS = ['uniformization', 'euler', 'kstep:1', 'kstep:2', 'kstep:3', 'kstep:4', 'defect', 'oracle'] as const;
@@ -48,7 +48,7 @@ export const CHECK_DEFECT_MAX_WORK = 2e8;
 /** Parse a method label; throws on an unknown one (the CLI turns that into a usage error). */
 export function parseMethodLabel(label: string): { method: 'uniformization' | 'euler' | 'kstep' | 'defect' | 'oracle' | 'variant'; k?: number } {
   if (label.startsWith('variant:')) {
-    if (!variantByName(label.slice(8))) throw new Error(`unknown broken variant '${label.slice(8)}' (known: ${VARIANTS.map((v) => v.name).join(', ')})`);
+    if (!plantedByName(label.slice(8))) throw new Error(`unknown broken variant '${label.slice(8)}' (known: ${plantedNames().join(', ') || 'none loaded'})`);
     return { method: 'variant' };
   }
   const m = /^kstep(?::(\d+))?$/.exec(label);
@@ -73,7 +73,7 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
     case 'defect':
       return solveDefect(ctx.compiled, ctx.defectMaxWork ? { precision, maxWork: ctx.defectMaxWork } : { precision });
     case 'variant':
-      return variantByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
+      return plantedByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':
       return solveOracle(ctx.model, ctx.scheduler ? { digits: ctx.oracleDigits, scheduler: ctx.scheduler } : { digits: ctx.oracleDigits });
   }

@@ -55,7 +55,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--allow-unchecked', 'models where nothing independent was compared do not make the exit code 1', false)
     .action(async (paths: string[], o: CheckCliOptions) => {
       const precision = parsePrecision(o.precision);
-      const methods = parseMethodList(o.methods ?? '', '--methods');
+      const methods = await parseMethodList(o.methods ?? '', '--methods');
       const shard = o.shard ? parseShard(o.shard) : undefined;
       const jobs = parsePositiveInt(o.jobs, '--jobs', 256);
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;

@@ -4,6 +4,7 @@ import type { Command } from 'commander';
 import { runFuzz } from '../fuzz/index.js';
 import { solverProblem } from '../check/external.js';
 import { parseMethodLabel } from '../check/methods.js';
+import { loadPlantedFor } from '../check/planted.js';
 import { runSelftest, formatSelftest } from '../selftest/index.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from './errors.js';
@@ -11,8 +12,10 @@ import { parsePositiveInt, parsePrecision } from './output.js';
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
 
-export function parseMethodList(text: string, option: string): string[] {
+/** The labels of a --methods list, checked; planted variants are loaded only when one is asked for. */
+export async function parseMethodList(text: string, option: string): Promise<string[]> {
   const list = text === 'none' ? [] : text.split(',').map((s) => s.trim()).filter(Boolean);
+  await loadPlantedFor(list);
   for (const m of list) {
     try {
       parseMethodLabel(m);
@@ -42,7 +45,7 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
       if (!Number.isInteger(seed)) throw new UsageError(`--seed must be a whole number (got '${o.seed}')`);
       const maxStates = parsePositiveInt(o.maxStates, '--max-states', 40);
       const precision = parsePrecision(o.precision);
-      const methods = parseMethodList(o.methods, '--methods');
+      const methods = await parseMethodList(o.methods, '--methods');
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
       for (const t of o.solver) {
         const problem = solverProblem(t); // before anything is solved

@@ -5,6 +5,7 @@
  * code stays untouched.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
+import { registerPlanted, type PlantedMethod } from '../check/planted.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveEuler } from '../../solvers/euler/index.js';
@@ -13,11 +14,7 @@ import { chooseEpsilon } from '../../solvers/kstep/bound.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
 
-export interface Variant {
-  readonly name: string;
-  readonly bug: string;
-  solve(model: Model, m: CompiledModel, precision: number): Outcome;
-}
+export type Variant = PlantedMethod;
 
 const relabel = (out: Outcome, name: string): Outcome => ({ ...out, method: `variant:${name}` });
 
@@ -90,3 +87,6 @@ export const VARIANTS: readonly Variant[] = [
 export function variantByName(name: string): Variant | undefined {
   return VARIANTS.find((v) => v.name === name);
 }
+
+// Loading this module plants the variants, under labels variant:NAME (../check/planted.ts).
+registerPlanted(VARIANTS);

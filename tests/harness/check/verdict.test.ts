@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { loadModelFile } from '../../../corpus/format/load.js';
 import { checkModel } from '../../../harness/check/checkModel.js';
 import { modelVerdict, uncheckedReason } from '../../../harness/check/types.js';
+// Planted variants are loaded only on request (harness/check/planted.ts); this test asks for one.
+import '../../../harness/selftest/variants.js';
 
 const ferry = loadModelFile('corpus/models/ferry-crossing.yaml'); // a CTMDP without expected values
 const kettle = loadModelFile('corpus/models/kettle-scale.yaml'); // a CTMC with a closed-form expectation

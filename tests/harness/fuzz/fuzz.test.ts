@@ -5,6 +5,8 @@
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
 import { fuzzArbitrary, runFuzz } from '../../../harness/fuzz/index.js';
+// Planted variants are loaded only on request (harness/check/planted.ts); this test asks for one.
+import '../../../harness/selftest/variants.js';
 
 describe('fuzz families', () => {
   test('one model in four is adversarial (weights 9 : 3 : 4), at seed 3 over 1600 draws', () => {
