@@ -6,7 +6,7 @@
  */
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { UsageError } from '../cli/errors.js';
+import { UsageError } from '../errors.js';
 
 const SKIP = new Set(['format', 'generators', 'node_modules']);
 const MODEL_FILE = /\.(ya?ml|json)$/i;

@@ -7,7 +7,7 @@ import { createHash } from 'node:crypto';
 import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import type { Model } from '../../corpus/format/types.js';
 import Tinypool from 'tinypool';
-import { UsageError } from '../cli/errors.js';
+import { UsageError } from '../errors.js';
 import { checkModel, type CheckOptions } from './checkModel.js';
 import { collectModelFiles } from './collect.js';
 import { solverProblem } from './external.js';

@@ -4,7 +4,7 @@ import { compile } from '../../corpus/format/compile.js';
 import { solveOracle } from '../../oracles/index.js';
 import { loadAll } from '../check/index.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { parsePrecision, writeFileAtomic } from './output.js';
 
 export function registerBench(program: Command, setExit: SetExit): void {

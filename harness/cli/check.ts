@@ -9,7 +9,7 @@ import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
 
 function parseDefaultBound(text: string): 'precision' | number {

@@ -7,7 +7,7 @@ import { parseMethodLabel } from '../check/methods.js';
 import { loadPlantedFor } from '../check/planted.js';
 import { runSelftest, formatSelftest } from '../selftest/index.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];

@@ -6,7 +6,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { ModelError } from '../../corpus/format/load.js';
 import { TemplateError } from '../external/template.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { registerCommands } from './commands.js';
 
 function fail(message: string): never {

@@ -14,7 +14,7 @@ import type { ModelReport } from '../check/types.js';
 import { checkJson, type CheckJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { writeFileAtomic } from './output.js';
 
 /** The shard set is not complete or not disjoint: exit 1, not a usage error. */

@@ -1,6 +1,6 @@
 /** Writing report files: to a temporary name beside the target, then renamed, so nothing is half-written. */
 import { renameSync, writeFileSync } from 'node:fs';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 
 export function writeFileAtomic(path: string, text: string): void {
   const tmp = `${path}.${process.pid}.tmp`;

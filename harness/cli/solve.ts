@@ -9,7 +9,7 @@ import { toResultJson } from '../../corpus/format/result.js';
 import { solveWith } from '../check/methods.js';
 import { formatTable } from '../check/table.js';
 import type { SetExit } from './commands.js';
-import { UsageError } from './errors.js';
+import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
 
 function warn(warnings: readonly string[]): void {
