@@ -132,6 +132,30 @@ export class StepDefect {
   }
 }
 
+/**
+ * f(h) of a step into out, by Horner's rule; returns the largest rounding bound γ_{2K+1}·Σ|c_j|h^j
+ * (Higham 2002, §5.1). States marked in `frozen` keep c_0 exactly.
+ */
+export function evaluateEnd(C: Float64Array, S: number, K: number, h: number, out: Float64Array, frozen?: Uint8Array): number {
+  const gH = gamma(2 * K + 1);
+  let err = 0;
+  for (let s = 0; s < S; s++) {
+    if (frozen?.[s]) {
+      out[s] = C[s]!;
+      continue;
+    }
+    let v = C[K * S + s]!;
+    let abs = Math.abs(v);
+    for (let j = K - 1; j >= 0; j--) {
+      v = v * h + C[j * S + s]!;
+      abs = abs * h + Math.abs(C[j * S + s]!);
+    }
+    out[s] = v;
+    err = Math.max(err, gH * abs * (1 + 1e-12));
+  }
+  return err;
+}
+
 /** One step of a dense solution: f_s(t_i + τ) = Σ_j coef[j·S + s] τ^j on [0, h]. */
 export interface DenseStep {
   readonly h: number;
@@ -161,7 +185,6 @@ export function certify(m: CompiledModel, steps: readonly DenseStep[], K: number
     else for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) lambda = Math.max(lambda, m.exitRate[a]!);
   }
   const sd = new StepDefect(m, K, frozen);
-  const gH = gamma(2 * K + 1);
   let prev = new Float64Array(S);
   for (let s = 0; s < S; s++) prev[s] = m.goal[s]!;
   let prevErr = 0;
@@ -186,17 +209,7 @@ export function certify(m: CompiledModel, steps: readonly DenseStep[], K: number
     plus += st.h * r.plus;
     minus += st.h * r.minus;
     const next = new Float64Array(S);
-    prevErr = 0;
-    for (let s = 0; s < S; s++) {
-      let v = st.coef[K * S + s]!;
-      let abs = Math.abs(v);
-      for (let j = K - 1; j >= 0; j--) {
-        v = v * st.h + st.coef[j * S + s]!;
-        abs = abs * st.h + Math.abs(st.coef[j * S + s]!);
-      }
-      next[s] = v;
-      prevErr = Math.max(prevErr, gH * abs * (1 + 1e-12));
-    }
+    prevErr = evaluateEnd(st.coef, S, K, st.h, next);
     prev = next;
     total += st.h;
   }

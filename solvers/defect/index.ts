@@ -41,10 +41,9 @@
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
-import { gamma } from '../piecewise/poly.js';
 import { scaleTime } from '../shared/scale.js';
 import { clampUnit, goalIndicator, nowSeconds, precisionProblem, UNIT_ROUNDOFF } from '../shared/numeric.js';
-import { StepDefect } from './certificate.js';
+import { evaluateEnd, StepDefect } from './certificate.js';
 import { DecisionTrace } from './trace.js';
 
 export interface DefectOptions {
@@ -231,23 +230,6 @@ class Work {
 
   /** f(h) into out; returns the largest Horner rounding bound (the jump to the next step's start). */
   evaluate(h: number, out: Float64Array): number {
-    const { S, C, K, frozen } = this;
-    const gH = gamma(2 * K + 1);
-    let jump = 0;
-    for (let s = 0; s < S; s++) {
-      if (frozen[s]) {
-        out[s] = C[s]!;
-        continue;
-      }
-      let v = C[K * S + s]!;
-      let abs = Math.abs(v);
-      for (let j = K - 1; j >= 0; j--) {
-        v = v * h + C[j * S + s]!;
-        abs = abs * h + Math.abs(C[j * S + s]!);
-      }
-      out[s] = v;
-      jump = Math.max(jump, gH * abs * (1 + 1e-12));
-    }
-    return jump;
+    return evaluateEnd(this.C, this.S, this.K, h, out, this.frozen);
   }
 }
