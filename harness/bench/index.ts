@@ -10,6 +10,7 @@ import type { Outcome } from '../../corpus/format/result.js';
 import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
+import { formatError, formatRatio, formatSeconds } from '../numbers.js';
 
 export type BenchMethod = 'kstep' | 'euler' | 'uniformization';
 
@@ -100,7 +101,7 @@ export function runBench(models: readonly BenchModel[], opts: BenchOptions, tabl
   return rows;
 }
 
-const exp = (x: number | undefined): string => (x === undefined ? '–' : x === 0 ? '0' : x.toExponential(2));
+const exp = (x: number | undefined): string => (x === undefined ? '–' : formatError(x));
 
 /** A plain-text table, one row per run; "error/bound" above 1 marks a broken bound. */
 export function formatBenchTable(rows: readonly BenchRow[]): string {
@@ -111,10 +112,10 @@ export function formatBenchTable(rows: readonly BenchRow[]): string {
     r.k === undefined ? '' : String(r.k),
     exp(r.precision),
     r.refused ? 'refused' : String(r.steps ?? '–'),
-    r.seconds.toFixed(4),
+    formatSeconds(r.seconds),
     exp(r.errorBound),
     exp(r.actualError),
-    r.actualError !== undefined && r.errorBound ? (r.actualError / r.errorBound).toExponential(2) : '–',
+    r.actualError !== undefined && r.errorBound ? formatRatio(r.actualError / r.errorBound) : '–',
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]) => cells.map((c, i) => (i < 3 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join('  ').trimEnd();

@@ -6,13 +6,14 @@
 import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
-import { compareAnswers, compareRange, compareWithReference, formatRatio } from '../compare/index.js';
+import { compareAnswers, compareRange, compareWithReference } from '../compare/index.js';
 import { runExternalMethod, solverLabel, type DefaultBound } from './external.js';
 import { failed, ran } from './make.js';
 import { CHECK_DEFECT_MAX_WORK, CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
 import { audit, dominance, metamorphic, monotoneInT, strategyValue, type Solve } from './properties.js';
 import { reproduceCommand } from './reproduce.js';
 import { shownLabel, type CheckResult, type MethodResult, type ModelReport, type SolvedMethod } from './types.js';
+import { formatError, formatRatio, formatValue } from '../numbers.js';
 
 /** The own method that also runs the metamorphic relations (fast and order 3). */
 export const METAMORPHIC_METHOD = 'kstep:3';
@@ -114,7 +115,7 @@ function rangeCheck(names: readonly string[], m: SolvedMethod): CheckResult {
   const head = { kind: 'range' as const, name: `range ${shownLabel(m)}`, methods: [m.label], independent: false };
   return ran(head, c, c.agree
     ? 'every value in [0, 1] up to its bound'
-    : `state ${names[s]}: value ${m.values[s]} outside [0, 1] by more than its bound ${m.errorBound}`);
+    : `state ${names[s]}: value ${formatValue(m.values[s]!)} outside [0, 1] by more than its bound ${formatError(m.errorBound)}`);
 }
 
 /** Two answers within the sum of their bounds; independent evidence only across families. */
@@ -123,14 +124,13 @@ function agreeCheck(names: readonly string[], a: SolvedMethod, b: SolvedMethod):
   const s = c.worstState;
   const independent = a.family !== b.family;
   const head = { kind: 'agree' as const, name: `agree ${shownLabel(a)} ~ ${shownLabel(b)}`, methods: [a.label, b.label], independent };
-  const e = (x: number, d: number): string => x.toExponential(d);
   if (c.agree) {
     const family = independent ? '' : `; both of family ${a.family}, not independent`;
-    return ran(head, c, `worst state ${names[s] ?? '-'}: |difference| ${e(c.difference, 2)} ≤ allowed ${e(c.allowed, 2)} ` +
+    return ran(head, c, `worst state ${names[s] ?? '-'}: |difference| ${formatError(c.difference)} ≤ allowed ${formatError(c.allowed)} ` +
       `(ratio ${formatRatio(c.ratio)})${family}`);
   }
-  return ran(head, c, `state ${names[s] ?? '-'}: ${a.label} = ${a.values[s]}, ${b.label} = ${b.values[s]}, ` +
-    `|difference| ${e(c.difference, 3)} > allowed ${e(c.allowed, 3)} (bounds ${e(a.errorBound, 2)} + ${e(b.errorBound, 2)})`);
+  return ran(head, c, `state ${names[s] ?? '-'}: ${a.label} = ${formatValue(a.values[s]!)}, ${b.label} = ${formatValue(b.values[s]!)}, ` +
+    `|difference| ${formatError(c.difference)} > allowed ${formatError(c.allowed)} (bounds ${formatError(a.errorBound)} + ${formatError(b.errorBound)})`);
 }
 
 /** An answer against the file's reference values (a reference: independent evidence). */
@@ -142,6 +142,6 @@ function expectCheck(names: readonly string[], exp: NonNullable<Model['expect']>
   const head = { kind: 'expect' as const, name: `expect ${shownLabel(m)}`, methods: [m.label], independent: true };
   return ran(head, c, c.agree
     ? `matches ${entries.length} expected value(s) (${exp.source}; ratio ${formatRatio(c.ratio)})`
-    : `state ${names[s]}: ${m.values[s]} vs expected ${exp.values[names[s]!]}, ` +
-      `|difference| ${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`);
+    : `state ${names[s]}: ${formatValue(m.values[s]!)} vs expected ${exp.values[names[s]!]}, ` +
+      `|difference| ${formatError(c.difference)} > ${formatError(c.allowed)}`);
 }

@@ -18,10 +18,11 @@ import type { Scheduler } from '../../corpus/format/scheduler.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
-import { compareAnswers, compareAtMost, formatRatio, type Comparison } from '../compare/index.js';
+import { compareAnswers, compareAtMost, type Comparison } from '../compare/index.js';
 import { failed, ran, skipped, type CheckHead } from './make.js';
 import { addUnreachable, duplicateAction, gameOfCtmc, renameStates, scaleRates, type Transformed } from './transform.js';
 import { shownLabel, type CheckResult, type MethodResult, type SolvedMethod } from './types.js';
+import { formatError, formatRatio, formatValue } from '../numbers.js';
 
 export type Solve = (label: string, model: Model) => Promise<MethodResult>;
 
@@ -29,7 +30,7 @@ const answer = (m: SolvedMethod) => ({ label: m.label, values: m.values, bound: 
 
 const describeDiff = (names: readonly string[], c: Comparison, what: string): string =>
   `${c.agree ? 'holds' : 'broken'} (${what}): worst state ${names[c.worstState] ?? '-'}, ` +
-  `difference ${c.difference.toExponential(2)} vs allowed ${c.allowed.toExponential(2)} (ratio ${formatRatio(c.ratio)})`;
+  `difference ${formatError(c.difference)} vs allowed ${formatError(c.allowed)} (ratio ${formatRatio(c.ratio)})`;
 
 const notSolved = (r: MethodResult): string => (r.status === 'refused' ? `refused (${r.code}): ${r.reason}` : r.status === 'fault' ? `${r.fault}: ${r.reason}` : '');
 
@@ -45,7 +46,7 @@ export async function monotoneInT(model: Model, base: SolvedMethod, solve: Solve
   return ran(head, c, c.agree
     ? `v(T/2) ≤ v(T) + bounds in every state (ratio ${formatRatio(c.ratio)})`
     : `state ${names[c.worstState]}: v(T/2) = ${r.values[c.worstState]} exceeds v(T) = ${base.values[c.worstState]} by ` +
-      `${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`);
+      `${formatError(c.difference)} > ${formatError(c.allowed)}`);
 }
 
 export function transformations(model: Model): Transformed[] {
@@ -104,8 +105,8 @@ export function dominance(model: Model, m: SolvedMethod): CheckResult | undefine
   const s = c.worstState;
   return ran(head, c, c.agree
     ? `the returned scheduler does not beat the claimed optimum (${isMax ? 'max' : 'min'}; ratio ${formatRatio(c.ratio)})`
-    : `state ${w.names[s]}: the returned scheduler achieves ${w.values[s]}, beyond the claimed optimum ${m.values[s]} by ` +
-      `${c.difference.toExponential(3)} > ${c.allowed.toExponential(3)}`);
+    : `state ${w.names[s]}: the returned scheduler achieves ${formatValue(w.values[s]!)}, beyond the claimed optimum ${formatValue(m.values[s]!)} by ` +
+      `${formatError(c.difference)} > ${formatError(c.allowed)}`);
 }
 
 /**

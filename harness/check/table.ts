@@ -1,7 +1,7 @@
 /** The terminal table of `check`, and the list of failures with the command that reproduces each. */
-import { formatRatio } from '../compare/index.js';
 import { commonFailingMethod, summarize } from './summary.js';
 import { modelVerdict, shownLabel, uncheckedReason, type ModelReport, type SolvedMethod } from './types.js';
+import { formatRatio, formatScalar, formatValue } from '../numbers.js';
 
 export function formatTable(header: readonly string[], rows: readonly (readonly string[])[]): string {
   const width = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
@@ -47,11 +47,11 @@ export function formatCheckReport(reports: readonly ModelReport[], opts: TableOp
   const rows = reports.map((r) => {
     const best = bestAnswer(r);
     const s = r.initial >= 0 ? r.initial : 0;
-    const value = best && r.states > 0 ? `${r.stateNames[s]} = ${best.values[s]!.toPrecision(10)}` : '-';
+    const value = best && r.states > 0 ? `${r.stateNames[s]} = ${formatValue(best.values[s]!)}` : '-';
     const ratios = r.checks.filter((c) => c.kind === 'agree' && c.status !== 'skipped').map((c) => c.ratio ?? 0);
     const solved = r.methods.filter((m) => m.status === 'solved').length;
     return [
-      r.model, r.kind, String(r.states), r.lambdaT.toPrecision(3), `${solved}/${r.methods.length}`, coarserText(r), value,
+      r.model, r.kind, String(r.states), formatScalar(r.lambdaT), `${solved}/${r.methods.length}`, coarserText(r), value,
       ratios.length ? formatRatio(Math.max(...ratios)) : '-',
       r.error ? 'ERROR' : VERDICT_SHOWN[modelVerdict(r)],
     ];

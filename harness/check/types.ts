@@ -4,6 +4,7 @@
  * check is passed, failed or skipped (it could not run), and names the methods it involves by id.
  */
 import type { RefusalCode } from '../../corpus/format/result.js';
+import { formatPrecision } from '../numbers.js';
 
 /**
  * Method families: answers of one family share code, so their agreement is no independent evidence.
@@ -129,6 +130,3 @@ export function shownLabel(m: MethodResult): string {
   return `${m.label}${at}${m.boundAssumed ? '[bound assumed]' : ''}`;
 }
 
-export function formatPrecision(p: number): string {
-  return p.toExponential().replace(/\.0+e/, 'e').replace('e+', 'e');
-}

@@ -9,6 +9,7 @@ import { runSelftest, formatSelftest } from '../selftest/index.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
+import { formatSeconds } from '../numbers.js';
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
 
@@ -74,13 +75,13 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
         `${d.adversarial} adversarial (near-ties)`;
       if (!summary.failure) {
         const head = `fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, ` +
-          `in ${summary.seconds.toFixed(1)} s`;
+          `in ${formatSeconds(summary.seconds)}`;
         process.stdout.write(`${head}\n${families}\n`);
         return setExit(0);
       }
       const f = summary.failure;
       const lines = [
-        `fuzz: FAILED after ${summary.runs} model(s) (seed ${f.seed}, path ${f.path}), shrunk to ${f.states} state(s), in ${summary.seconds.toFixed(1)} s`,
+        `fuzz: FAILED after ${summary.runs} model(s) (seed ${f.seed}, path ${f.path}), shrunk to ${f.states} state(s), in ${formatSeconds(summary.seconds)}`,
         ...f.failed.map((c, i) => `  ${i + 1}. ${c.name}: ${c.detail}`),
         f.savedTo ? `  saved: ${f.savedTo}` : '  (not saved)',
         `  reproduce: ${f.reproduce}`,

@@ -16,6 +16,7 @@ import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { writeFileAtomic } from './output.js';
+import { formatPrecision } from '../numbers.js';
 
 /** The shard set is not complete or not disjoint: exit 1, not a usage error. */
 export class MergeRefused extends Error {}
@@ -55,7 +56,7 @@ export function mergeReports(files: readonly string[]): Merged {
   const models: ModelReport[] = [];
   for (const { f, r } of reports) {
     if (r.precision !== first.r.precision) {
-      throw new UsageError(`${f}: precision ${r.precision} differs from ${first.r.precision} of ${first.f}`);
+      throw new UsageError(`${f}: precision ${formatPrecision(r.precision)} differs from ${formatPrecision(first.r.precision)} of ${first.f}`);
     }
     if (r.corpus.digest !== first.r.corpus.digest) throw new MergeRefused(`${f} checked another corpus than ${first.f} (file lists differ)`);
     if (r.shard.count !== count) throw new MergeRefused(`${f} is shard ${r.shard.index}/${r.shard.count}, ${first.f} is of ${count} shards`);

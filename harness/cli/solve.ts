@@ -11,6 +11,7 @@ import { formatTable } from '../check/table.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
+import { formatError, formatScalar, formatValue } from '../numbers.js';
 
 function warn(warnings: readonly string[]): void {
   for (const w of warnings) process.stderr.write(`crossbound: ${w}\n`);
@@ -52,14 +53,14 @@ export function registerSolve(program: Command, setExit: SetExit): void {
       }
       const rows = compiled.stateNames.map((n, i) => [
         n + (i === compiled.initial ? ' (initial)' : ''),
-        out.values[i]!.toPrecision(15),
+        formatValue(out.values[i]!),
         ...(out.valuesDecimal ? [out.valuesDecimal[i]!] : []),
       ]);
       const params = Object.entries(json.params).map(([key, v]) => `${key}=${v}`).join(', ');
-      const stats = Object.entries(json.stats).map(([key, v]) => `${key}=${Number.isInteger(v) ? v : Number(v).toPrecision(3)}`).join(', ');
+      const stats = Object.entries(json.stats).map(([key, v]) => `${key}=${Number.isInteger(v) ? v : formatScalar(Number(v))}`).join(', ');
       process.stdout.write(
         `${model.name}: ${json.method} (${params}), time bound ${model.timeBound}, goal mode ${model.goalMode}\n` +
-          `error bound ${out.errorBound.toExponential(3)} in every state; ${stats}\n\n` +
+          `error bound ${formatError(out.errorBound)} in every state; ${stats}\n\n` +
           `${formatTable(['state', 'v_s(T)', ...(out.valuesDecimal ? ['high precision'] : [])], rows)}\n`,
       );
       setExit(0);

@@ -77,16 +77,3 @@ export function compareWithReference(a: Answer, ref: { label: string; states: re
   return { ...c, worstState: c.worstState < 0 ? -1 : ref.states[c.worstState]! };
 }
 
-/**
- * A ratio as reports show it: three significant digits, never rounded across 1 (0.9995 is `0.999`,
- * 1.0004 is `1.0004`), so a passing check never reads as `1.00` and a failing one never as `1.00` either.
- */
-export function formatRatio(r: number): string {
-  if (!Number.isFinite(r)) return Number.isNaN(r) ? 'NaN' : 'inf';
-  if (r === 0) return '0';
-  if (r < 1e-3 || r >= 1e4) return r.toExponential(2).replace('e+', 'e');
-  let s = r.toPrecision(3);
-  if (r < 1 && Number(s) >= 1) s = '0.999';
-  for (let p = 4; r > 1 && Number(s) <= 1 && p <= 17; p++) s = r.toPrecision(p);
-  return s;
-}

@@ -17,6 +17,7 @@ import { arbModelObject, arbSwitchingModelObject } from '../../corpus/generators
 import { checkModel } from '../check/checkModel.js';
 import { shellQuote } from '../check/reproduce.js';
 import type { CheckResult, ModelReport } from '../check/types.js';
+import { formatPrecision } from '../numbers.js';
 
 export interface FuzzOptions {
   readonly runs: number;
@@ -127,12 +128,12 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
     ...(opts.solvers ?? []).flatMap((t) => ['--solver', shellQuote(t)]),
     ...((opts.solvers ?? []).length > 0 && opts.timeoutMs !== undefined ? ['--timeout', String(opts.timeoutMs / 1000)] : []),
   ].join(' ');
-  const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${opts.precision.toExponential()} ` +
+  const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${formatPrecision(opts.precision)} ` +
     `--methods ${opts.methods.join(',') || 'none'}${solverArgs ? ` ${solverArgs}` : ''}`;
   const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
   const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
   const reproduce = savedTo
-    ? `crossbound check ${shellQuote(savedTo)} --precision ${opts.precision.toExponential()} --methods ${methods}${solverArgs ? ` ${solverArgs}` : ''}`
+    ? `crossbound check ${shellQuote(savedTo)} --precision ${formatPrecision(opts.precision)} --methods ${methods}${solverArgs ? ` ${solverArgs}` : ''}`
     : replay;
   return { runs: out.numRuns, drawn, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
 }
@@ -145,7 +146,7 @@ function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo
   const file = join(dir, `${name}.json`);
   const json = exportJson({ ...model, name }) as unknown as Record<string, unknown>;
   json.description =
-    `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${opts.precision.toExponential()}, methods ${opts.methods.join(',')}). ` +
+    `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${formatPrecision(opts.precision)}, methods ${opts.methods.join(',')}). ` +
     `Verdict: ${first.name}: ${first.detail}. Found by: ${replay}. ` +
     `Kept forever as a regression; every correct solver must pass it.` +
     (f.model.description ? ` The model as drawn: ${f.model.description}` : '');

@@ -6,11 +6,11 @@
 import { readFileSync } from 'node:fs';
 import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import { auditSummary } from '../check/table.js';
-import { formatRatio } from '../compare/index.js';
 import { commonFailingMethod, summarize } from '../check/summary.js';
 import { assumedBoundNotes, coarserText } from '../check/table.js';
 import { modelVerdict, uncheckedReason, type ModelReport, type SolvedMethod } from '../check/types.js';
 import { errorPlot, logLogSlope, measureConvergence, measureValueCurve, svgOf, timePlot, valuePlot } from './plots.js';
+import { formatPrecision, formatRatio, formatScalar } from '../numbers.js';
 
 export const CAUTION =
   'Agreement between independent solvers is evidence, not proof. A passing report shows that these solvers, ' +
@@ -97,7 +97,7 @@ export async function htmlReport(reports: readonly ModelReport[], meta: { precis
   const coverage = table(
     ['model', 'kind', 'states', 'transitions', 'λT', 'goal mode', 'switches', 'methods solved', 'ran coarser', 'verdict'],
     reports.map((r) => [
-      r.model, r.kind, String(r.states), String(r.transitions), r.lambdaT.toPrecision(3), r.goalMode, switchCount(r),
+      r.model, r.kind, String(r.states), String(r.transitions), formatScalar(r.lambdaT), r.goalMode, switchCount(r),
       `${r.methods.filter((m) => m.status === 'solved').length}/${r.methods.length}`, coarserText(r), modelVerdict(r),
     ]),
   );
@@ -107,7 +107,7 @@ export async function htmlReport(reports: readonly ModelReport[], meta: { precis
     ? table(['method', 'models', 'largest actual error / bound', 'median'], audit.map((a) => [a.method, String(a.models), formatRatio(a.max), formatRatio(a.median)]))
     : '<p>No oracle values: no audit.</p>';
   const headline = `${sum.pass} of ${sum.models} models pass; ${sum.fail} fail; ${sum.unchecked} unchecked; ${failed} failed check(s). ` +
-    `Requested precision ${meta.precision.toExponential()}; a method shown as name@precision ran at that coarser precision (a work cap).`;
+    `Requested precision ${formatPrecision(meta.precision)}; a method shown as name@precision ran at that coarser precision (a work cap).`;
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>crossbound qualification report</title>
 <style>

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { compareAnswers, compareAtMost, compareRange, compareWithReference, COMPARE_SLACK, formatRatio } from '../../../harness/compare/index.js';
+import { compareAnswers, compareAtMost, compareRange, compareWithReference, COMPARE_SLACK } from '../../../harness/compare/index.js';
+import { formatRatio } from '../../../harness/numbers.js';
 import { expectWithin } from '../../helpers/expectWithin.js';
 
 describe('compareAnswers: |a − b| > bound_a + bound_b + 1e-15 flags a disagreement', () => {
