@@ -62,8 +62,18 @@ function keyText(t: string, from: number, to: number): string {
   return raw.includes('\\') ? (JSON.parse(t.slice(from, to)) as string) : raw;
 }
 
-export function scanJson(t: string, maxDepth: number): JsonScan {
+/** Budgets on what `JSON.parse` will build: values (scalars, lists and mappings) and mapping entries. */
+export interface JsonBudget {
+  readonly values: number;
+  readonly entries: number;
+}
+
+export function scanJson(t: string, maxDepth: number, budget: JsonBudget = { values: Infinity, entries: Infinity }): JsonScan {
   const syntax = (offset: number, message: string): JsonScan => ({ ok: false, offset, message, rule: 'JSON syntax error' });
+  const tooLarge = (offset: number, what: string, limit: number): JsonScan =>
+    ({ ok: false, offset, message: `more than ${limit.toLocaleString('en-US')} ${what} (a memory limit; see the README's limits)`, rule: 'model too large' });
+  let values = 0;
+  let entries = 0;
   // Stack of open containers: null for an array, the set of keys seen for an object.
   const stack: (Set<string> | null)[] = [];
   let want = Want.Value;
@@ -84,7 +94,10 @@ export function scanJson(t: string, maxDepth: number): JsonScan {
           stack.pop();
           i++;
           want = Want.CommaOrClose;
-        } else if (c === 0x5b || c === 0x7b) {
+          break;
+        }
+        if (++values > budget.values) return tooLarge(i, 'JSON values', budget.values);
+        if (c === 0x5b || c === 0x7b) {
           if (stack.length >= maxDepth) return { ok: false, offset: i, message: `nesting is deeper than ${maxDepth} levels`, rule: 'nesting too deep' };
           stack.push(c === 0x5b ? null : new Set());
           i++;
@@ -111,6 +124,7 @@ export function scanJson(t: string, maxDepth: number): JsonScan {
           const e = endOfString(t, i);
           if (e < 0) return syntax(-e - 1, 'bad character or escape in a string');
           const k = keyText(t, i, e);
+          if (++entries > budget.entries) return tooLarge(i, 'mapping entries', budget.entries);
           if (top!.has(k)) return { ok: false, offset: i, message: `key ${JSON.stringify(k)} appears twice in this mapping`, rule: 'duplicate key' };
           top!.add(k);
           i = e;

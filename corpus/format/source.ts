@@ -13,7 +13,7 @@ import { readFileSync, statSync } from 'node:fs';
 import { ModelError, posOf } from './errors.js';
 import type { Pos } from './errors.js';
 import { jsonLocate, scanJson } from './jsonScan.js';
-import { MAX_DEPTH, MAX_FILE_BYTES, MAX_YAML_BYTES } from './limits.js';
+import { MAX_DEPTH, MAX_FILE_BYTES, MAX_JSON_ENTRIES, MAX_JSON_VALUES, MAX_YAML_BYTES } from './limits.js';
 import { parsedYaml } from './yamlSource.js';
 
 export type Path = readonly (string | number)[];
@@ -59,7 +59,7 @@ export function parseText(text: string, file: string): Parsed {
   if (text.trim() === '') throw new ModelError(file, 1, 1, 'file is empty');
   const first = text.search(/\S/);
   if (text.charCodeAt(first) === 0x7b) {
-    const scan = scanJson(text, MAX_DEPTH);
+    const scan = scanJson(text, MAX_DEPTH, { values: MAX_JSON_VALUES, entries: MAX_JSON_ENTRIES });
     if (scan.ok) return parsedJson(text, file);
     // Not JSON: it may still be a YAML flow mapping. A .json file reports the JSON error.
     if (/\.json$/i.test(file) || scan.rule !== 'JSON syntax error' || text.length > MAX_YAML_BYTES) {
