@@ -21,6 +21,7 @@
 import type { Solved } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { GoalMode } from '../../corpus/format/types.js';
+import { DECIMAL_TEXT } from '../../corpus/format/numbers.js';
 
 export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
 
@@ -41,7 +42,6 @@ export const VALUE_SLACK = 1e-12;
 /** The method name an external solver's result gets, so it is never mistaken for a built-in one. */
 export const EXTERNAL_PREFIX = 'external:';
 
-const DECIMAL_RE = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 function isPlainObject(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -129,7 +129,7 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   if (doc.values_decimal !== undefined) {
     if (!isPlainObject(doc.values_decimal)) return fail('bad-format', '`values_decimal` is not an object');
     for (const [k, v] of Object.entries(doc.values_decimal)) {
-      if (typeof v !== 'string' || !DECIMAL_RE.test(v.trim())) return fail('bad-format', `\`values_decimal.${k}\` is not a decimal string`);
+      if (typeof v !== 'string' || !DECIMAL_TEXT.test(v)) return fail('bad-format', `\`values_decimal.${k}\` is not a decimal string`);
     }
     decimals = doc.values_decimal;
   }

@@ -50,6 +50,10 @@ describe('parseResult', () => {
     expect(faultOf({ ...good(), params: { k: [3] } })).toBe('bad-format');
     expect(faultOf({ ...good(), stats: { seconds: '0.1' } })).toBe('bad-format');
     expect(faultOf({ ...good(), values_decimal: { dry: 'one' } })).toBe('bad-format');
+    // values_decimal uses the model format's one number grammar (corpus/format/numbers.ts): no '+', no spaces
+    expect(faultOf({ ...good(), values_decimal: { dry: '+1' } })).toBe('bad-format');
+    expect(faultOf({ ...good(), values_decimal: { dry: ' 1' } })).toBe('bad-format');
+    expect(faultOf({ ...good(), values_decimal: { dry: '1e+0' } })).not.toBe('bad-format');
     expect(faultOf({ ...good(), scheduler: { choices: { both_ok: [{ from: 'x', action: 'a' }] } } })).toBe('bad-format');
     expect(faultOf(good(), { timeBound: 10 })).toBe('bad-format');
     expect(faultOf(good(), { goalMode: 'at' })).toBe('bad-format');
