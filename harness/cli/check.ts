@@ -11,6 +11,7 @@ import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
 import { CheckProgress, systemClock, viewFor } from './progress.js';
+import { toSnakeKeys } from '../jsonKeys.js';
 
 function parseDefaultBound(text: string): 'precision' | number {
   if (text === 'precision') return 'precision';
@@ -88,7 +89,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       for (const r of reports) for (const w of r.warnings) process.stderr.write(`crossbound: ${w}\n`);
       const emptyShard = reports.length === 0 ? { ...coverage.shard, corpusFiles: coverage.corpusFiles } : undefined;
       process.stdout.write(`${formatCheckReport(reports, { allowUnchecked, ...(emptyShard ? { emptyShard } : {}) })}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, coverage, allowUnchecked), null, 1)}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(reports, precision, coverage, allowUnchecked)), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard }));
       if (o.report) {
         // Loaded on demand: the plotting library is large and only the report needs it.
