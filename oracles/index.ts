@@ -17,6 +17,8 @@ export interface OracleOptions {
   /** Decimal places asked for (values lie in [0, 1]). */
   readonly digits: number;
   readonly scheduler?: Scheduler;
+  /** Progress of the optimal oracle: time done of the time bound, after each segment (display only). */
+  readonly onProgress?: (timeDone: number, timeBound: number) => void;
 }
 
 /**
@@ -29,7 +31,7 @@ export function solveOracle(model: Model, opts: OracleOptions): Outcome {
   const k = timeUnitExponent(model);
   const scaled = inTimeUnit(model, k);
   if (isCtmc(model)) return solveExpm(scaled, opts);
-  const out = solveOptimal(scaled, { digits: opts.digits });
+  const out = solveOptimal(scaled, opts.onProgress ? { digits: opts.digits, onProgress: opts.onProgress } : { digits: opts.digits });
   if (k === 0 || out.kind !== 'solved' || !out.scheduler) return out;
   const unit = 10 ** -k; // a time t in the scaled model is t·10^−k in the model's own unit
   const choices = Object.fromEntries(Object.entries(out.scheduler.choices).map(([s, segs]) => [s, segs.map((g) => ({ ...g, from: g.from * unit }))]));

@@ -22,8 +22,10 @@ export interface Shard {
 export interface RunCheckOptions extends CheckOptions {
   /** 1-based shard index and count: this run checks the files whose position p has p mod N = I − 1. */
   readonly shard?: Shard;
-  /** Called after each model is checked, with the number done so far. */
-  readonly onProgress?: (done: number, total: number, model: string) => void;
+  /** Called after each model is checked, with the number done so far and the model's position. */
+  readonly onProgress?: (done: number, total: number, model: string, index: number) => void;
+  /** Called when a model's check starts (with --jobs N, up to N are in flight). */
+  readonly onStart?: (index: number, total: number, model: string) => void;
   /** Worker threads (1: check in this thread). */
   readonly jobs?: number;
   /** Unchecked models do not make the exit code 1. */
@@ -75,25 +77,33 @@ export async function runCheck(
   const loaded = all.filter((_, p) => p % shard.count === shard.index - 1);
   const coverage: RunCoverage = { shard, corpusFiles: all.length, corpusDigest: digestFiles(all.map((l) => l.file)), files: loaded.map((l) => l.file) };
   const jobs = Math.min(opts.jobs ?? 1, loaded.length);
-  const { onProgress, shard: _shard, jobs: _jobs, allowUnchecked, ...checkOpts } = opts;
+  const { onProgress, onStart, shard: _shard, jobs: _jobs, allowUnchecked, ...checkOpts } = opts;
   let reports: ModelReport[];
   if (jobs <= 1) {
     reports = [];
     for (const [i, { file, model, warnings }] of loaded.entries()) {
+      onStart?.(i, loaded.length, model.name);
       reports.push(await checkModel(file, model, warnings, checkOpts));
-      onProgress?.(i + 1, loaded.length, model.name);
+      onProgress?.(i + 1, loaded.length, model.name, i);
     }
   } else {
     const pool = new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: jobs, maxThreads: jobs });
+    // At most `jobs` tasks are handed to the pool at a time, so that a model starts when onStart says so.
+    const out: ModelReport[] = new Array<ModelReport>(loaded.length);
+    let next = 0;
     let done = 0;
+    const runner = async (): Promise<void> => {
+      while (next < loaded.length) {
+        const i = next++;
+        const { file, model } = loaded[i]!;
+        onStart?.(i, loaded.length, model.name);
+        out[i] = (await pool.run({ file, opts: checkOpts })) as ModelReport;
+        onProgress?.(++done, loaded.length, model.name, i);
+      }
+    };
     try {
-      reports = await Promise.all(
-        loaded.map(async ({ file, model }) => {
-          const r = (await pool.run({ file, opts: checkOpts })) as ModelReport;
-          onProgress?.(++done, loaded.length, model.name);
-          return r;
-        }),
-      );
+      await Promise.all(Array.from({ length: jobs }, runner));
+      reports = out;
     } finally {
       await pool.destroy();
     }

@@ -37,6 +37,8 @@ export interface MethodContext {
   readonly kstepMaxIntervals?: number;
   /** The defect method's work: step attempts × (degree + 1) × (states + transitions). */
   readonly defectMaxWork?: number;
+  /** Progress of a long run (Euler: steps; the optimal oracle: time done), for `solve` on a terminal; no effect on results. */
+  readonly onProgress?: (done: number, total: number) => void;
 }
 
 export const CHECK_EULER_MAX_WORK = 3e7;
@@ -67,7 +69,11 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
     case 'uniformization':
       return solveUniformization(ctx.compiled, ctx.scheduler ? { precision, scheduler: ctx.scheduler } : { precision });
     case 'euler':
-      return solveEuler(ctx.compiled, ctx.eulerMaxWork ? { precision, maxWork: ctx.eulerMaxWork } : { precision });
+      return solveEuler(ctx.compiled, {
+        precision,
+        ...(ctx.eulerMaxWork ? { maxWork: ctx.eulerMaxWork } : {}),
+        ...(ctx.onProgress ? { onProgress: ctx.onProgress } : {}),
+      });
     case 'kstep':
       return solveKstep(ctx.compiled, ctx.kstepMaxIntervals ? { precision, k: k!, maxIntervals: ctx.kstepMaxIntervals } : { precision, k: k! });
     case 'defect':
@@ -75,7 +81,11 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
     case 'variant':
       return plantedByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':
-      return solveOracle(ctx.model, ctx.scheduler ? { digits: ctx.oracleDigits, scheduler: ctx.scheduler } : { digits: ctx.oracleDigits });
+      return solveOracle(ctx.model, {
+        digits: ctx.oracleDigits,
+        ...(ctx.scheduler ? { scheduler: ctx.scheduler } : {}),
+        ...(ctx.onProgress ? { onProgress: ctx.onProgress } : {}),
+      });
   }
 }
 

@@ -6,6 +6,7 @@ import { loadAll } from '../check/index.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePrecision, writeFileAtomic } from './output.js';
+import { toSnakeKeys } from '../jsonKeys.js';
 
 export function registerBench(program: Command, setExit: SetExit): void {
   program
@@ -34,7 +35,7 @@ export function registerBench(program: Command, setExit: SetExit): void {
       const { runBench, formatBenchTable } = await import('../bench/index.js');
       const rows = runBench(models, { methods: methods as ('kstep' | 'euler' | 'uniformization')[], ks, precisions });
       process.stdout.write(`${formatBenchTable(rows)}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(rows, null, 1)}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(rows), null, 1)}\n`);
       setExit(0);
     });
 }

@@ -1,7 +1,6 @@
 /** `check`: the cross-checking run over a corpus. */
 import { availableParallelism } from 'node:os';
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
 import { runCheck, parseShard } from '../check/index.js';
 import { INTERNAL_METHODS } from '../check/methods.js';
 import { parseMethodList } from './fuzz.js';
@@ -11,6 +10,8 @@ import { junitXml } from '../reports/junit.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
+import { CheckProgress, systemClock, viewFor } from './progress.js';
+import { toSnakeKeys } from '../jsonKeys.js';
 
 function parseDefaultBound(text: string): 'precision' | number {
   if (text === 'precision') return 'precision';
@@ -60,10 +61,10 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       const jobs = parsePositiveInt(o.jobs, '--jobs', 256);
       const timeoutMs = parsePositiveInt(o.timeout, '--timeout', 86_400) * 1000;
       const oracleDigits = parsePositiveInt(o.oracleDigits, '--oracle-digits', 200);
-      const bar = process.stderr.isTTY
-        ? new cliProgress.SingleBar({ format: 'check [{bar}] {value}/{total} {model}', hideCursor: true, clearOnComplete: true }, cliProgress.Presets.shades_classic)
-        : undefined;
-      let started = false;
+      const view = viewFor('check');
+      const progress = new CheckProgress(view, systemClock);
+      // A sign of life while long models run (fires between models when --jobs 1).
+      const timer = setInterval(() => progress.tick(), 1000).unref();
       const allowUnchecked = o.allowUnchecked;
       const defaultBound = o.defaultBound === undefined ? undefined : parseDefaultBound(o.defaultBound);
       const { reports, exitCode, coverage } = await runCheck(paths, {
@@ -76,19 +77,19 @@ export function registerCheck(program: Command, setExit: SetExit): void {
         oracleDigits,
         jobs,
         ...(shard ? { shard } : {}),
-        onProgress: (done, total, model) => {
-          if (bar) {
-            if (!started) bar.start(total, 0, { model });
-            started = true;
-            bar.update(done, { model });
-            if (done === total) bar.stop();
-          } else process.stderr.write(`check ${done}/${total} done: ${model}\n`);
+        onStart: (index, total, model) => {
+          if (index === 0) progress.plan(total, Math.min(jobs, total));
+          progress.start(index, model);
         },
+        onProgress: (_done, _total, _model, index) => progress.finish(index),
+      }).finally(() => {
+        clearInterval(timer);
+        view.stop();
       });
       for (const r of reports) for (const w of r.warnings) process.stderr.write(`crossbound: ${w}\n`);
       const emptyShard = reports.length === 0 ? { ...coverage.shard, corpusFiles: coverage.corpusFiles } : undefined;
       process.stdout.write(`${formatCheckReport(reports, { allowUnchecked, ...(emptyShard ? { emptyShard } : {}) })}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(reports, precision, coverage, allowUnchecked), null, 1)}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(reports, precision, coverage, allowUnchecked)), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard }));
       if (o.report) {
         // Loaded on demand: the plotting library is large and only the report needs it.

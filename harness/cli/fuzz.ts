@@ -10,6 +10,7 @@ import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
 import { formatSeconds } from '../numbers.js';
+import { FuzzProgress, systemClock, viewFor } from './progress.js';
 
 const collect = (v: string, prev: string[]): string[] => [...prev, v];
 
@@ -52,7 +53,8 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
         const problem = solverProblem(t); // before anything is solved
         if (problem) throw new UsageError(problem);
       }
-      let last = 0;
+      const view = viewFor('fuzz');
+      const progress = new FuzzProgress(view, systemClock);
       const summary = await runFuzz({
         runs,
         seed,
@@ -62,14 +64,9 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
         solvers: o.solver,
         timeoutMs,
         ...(o.save ? { save: o.save } : {}),
-        onProgress: (done, total) => {
-          const pct = Math.floor((100 * done) / total);
-          if (pct >= last + 10 || done === total) {
-            last = pct;
-            process.stderr.write(`fuzz: ${done}/${total} models\n`);
-          }
-        },
-      });
+        onEvent: (e) => progress.event(e),
+      }).finally(() => view.stop());
+      progress.finish();
       const d = summary.drawn;
       const families = `fuzz: families drawn: ${d.random} random, ${d.switching} switching, ` +
         `${d.adversarial} adversarial (near-ties)`;

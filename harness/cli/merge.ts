@@ -17,6 +17,7 @@ import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { writeFileAtomic } from './output.js';
 import { formatPrecision } from '../numbers.js';
+import { toCamelKeys, toSnakeKeys } from '../jsonKeys.js';
 
 /** The shard set is not complete or not disjoint: exit 1, not a usage error. */
 export class MergeRefused extends Error {}
@@ -28,7 +29,8 @@ function readReport(file: string): CheckJson {
   } catch (e) {
     throw new UsageError(`${file}: not a readable JSON file (${(e as Error).message.split('\n')[0]})`);
   }
-  const r = data as CheckJson;
+  // Keys are snake_case on disk (older reports: camelCase, read as they are).
+  const r = toCamelKeys(data) as CheckJson;
   if (!r || r.format !== 'crossbound-check/1' || !Array.isArray(r.models)) {
     throw new UsageError(`${file}: not a check report of format crossbound-check/1`);
   }
@@ -108,7 +110,7 @@ export function registerMerge(program: Command, setExit: SetExit): void {
       const allowUnchecked = o.allowUnchecked;
       process.stdout.write(`${formatCheckReport(models, { allowUnchecked })}\n`);
       const coverage = { shard: { index: 1, count: 1 }, corpusFiles: corpus.files, corpusDigest: corpus.digest, files: all };
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(checkJson(models, precision, coverage, allowUnchecked), null, 1)}\n`);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(models, precision, coverage, allowUnchecked)), null, 1)}\n`);
       if (o.junit) writeFileAtomic(o.junit, junitXml(models, { allowUnchecked }));
       setExit(summarize(models, allowUnchecked).exitCode);
     });

@@ -12,6 +12,7 @@ import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision } from './output.js';
 import { formatError, formatScalar, formatValue } from '../numbers.js';
+import { BarView, SolveProgress, systemClock } from './progress.js';
 
 function warn(warnings: readonly string[]): void {
   for (const w of warnings) process.stderr.write(`crossbound: ${w}\n`);
@@ -39,7 +40,16 @@ export function registerSolve(program: Command, setExit: SetExit): void {
       const compiled = compile(model);
       const label = o.method === 'kstep' ? `kstep:${k}` : o.method;
       const oracleDigits = Math.max(1, Math.round(-Math.log10(precision)));
-      const out = solveWith(label, { model, compiled, precision, oracleDigits, ...(scheduler ? { scheduler } : {}) }, precision);
+      // Progress on a terminal only (never on stdout, never in a log); the solver calls it rarely.
+      const bar = process.stderr.isTTY ? new BarView('solve', process.stderr, false) : undefined;
+      const progress = bar ? new SolveProgress(bar, systemClock, label) : undefined;
+      const onProgress = progress ? { onProgress: (done: number, total: number) => progress.report(done, total) } : {};
+      let out;
+      try {
+        out = solveWith(label, { model, compiled, precision, oracleDigits, ...(scheduler ? { scheduler } : {}), ...onProgress }, precision);
+      } finally {
+        bar?.stop();
+      }
       if (out.kind === 'refused' && out.code === 'internal') {
         // A failed self-check is a fault of the method, not a refusal and not bad input.
         process.stderr.write(`crossbound: ${file}: ${o.method} failed its own self-check (a fault): ${out.reason}\n`);

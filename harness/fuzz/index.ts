@@ -30,8 +30,19 @@ export interface FuzzOptions {
   readonly timeoutMs?: number;
   /** Folder for shrunk counterexamples; none: not saved. */
   readonly save?: string;
-  readonly onProgress?: (done: number, total: number) => void;
+  /** What the run is doing: the model it is at, a disagreement found, each shrink step. */
+  readonly onEvent?: (e: FuzzEvent) => void;
 }
+
+/**
+ * `model`: the run is at model `index` (1-based) of `total`; `found`: model `index` failed a check
+ * (`check`), with `states` states, and shrinking starts; `shrink`: one shrink step was tried (`tried`
+ * so far, `successful` of them gave a smaller failing model), the smallest failing model has `states`.
+ */
+export type FuzzEvent =
+  | { readonly kind: 'model'; readonly index: number; readonly total: number }
+  | { readonly kind: 'found'; readonly index: number; readonly total: number; readonly states: number; readonly check: string }
+  | { readonly kind: 'shrink'; readonly tried: number; readonly successful: number; readonly states: number };
 
 export interface FuzzFailure {
   readonly seed: number;
@@ -98,16 +109,30 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   const t0 = performance.now();
   const arb = fuzzArbitrary(opts.maxStates);
   let done = 0;
-  // Family of every call up to `runs`; the first out.numRuns of them are the runs proper.
+  // Family of every run proper (shrink steps not counted).
   const families: FuzzFamily[] = [];
+  // After the first failure, every call is a shrink step.
+  const shrink = { on: false, tried: 0, successful: 0, states: 0 };
   const prop = fc.asyncProperty(arb, async ({ family, model: obj }) => {
     // fast-check calls the property once per run and once per shrink step.
-    if (done < opts.runs) {
+    if (!shrink.on) {
       families.push(family);
-      opts.onProgress?.(++done, opts.runs);
+      opts.onEvent?.({ kind: 'model', index: ++done, total: opts.runs });
     }
     const r = await judgeModel(obj, opts);
-    return r.checks.every((c) => c.status !== 'failed');
+    const failed = r.checks.find((c) => c.status === 'failed');
+    if (shrink.on) {
+      shrink.tried++;
+      if (failed) {
+        shrink.successful++;
+        shrink.states = r.states;
+      }
+      opts.onEvent?.({ kind: 'shrink', tried: shrink.tried, successful: shrink.successful, states: shrink.states });
+    } else if (failed) {
+      Object.assign(shrink, { on: true, states: r.states });
+      opts.onEvent?.({ kind: 'found', index: done, total: opts.runs, states: r.states, check: failed.name });
+    }
+    return !failed;
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;

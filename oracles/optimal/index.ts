@@ -54,7 +54,8 @@ interface Piece {
   readonly choice: Int32Array;
 }
 
-export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
+/** `onProgress(timeDone, T)` is called after each segment of constant decisions (for a progress display only). */
+export function solveOptimal(model: Model, opts: { digits: number; onProgress?: (timeDone: number, timeBound: number) => void }): Outcome {
   const started = performance.now();
   const bad = badDigits(opts.digits);
   if (bad) return refuse(bad, 'invalid-input');
@@ -115,6 +116,7 @@ export function solveOptimal(model: Model, opts: { digits: number }): Outcome {
     x = r.x;
     t0 = r.tEnd;
     prev = dec.choice;
+    opts.onProgress?.(t0.toNumber(), T.toNumber());
   }
   if (violation > tolNum * 1.01) return refuse(`internal: Bellman violation ${violation.toExponential(2)} above the tolerance`, 'internal');
 

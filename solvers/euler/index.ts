@@ -53,8 +53,18 @@ import { DecisionLog } from './decisions.js';
 export const MAX_WORK = 3e9;
 const METHOD = 'euler';
 
-/** `maxWork` replaces the work cap MAX_WORK (steps × moving states and transitions); benchmarks raise it, check lowers it. */
-export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?: number }): Outcome {
+/** Steps between two calls of `onProgress` (a power of two: the test is one mask). */
+const PROGRESS_EVERY = 4096;
+
+/**
+ * `maxWork` replaces the work cap MAX_WORK (steps × moving states and transitions); benchmarks raise it,
+ * check lowers it. `onProgress(stepsDone, steps)` is called every PROGRESS_EVERY steps (for a progress
+ * display; it has no effect on the result).
+ */
+export function solveEuler(
+  m: CompiledModel,
+  opts: { precision: number; maxWork?: number; onProgress?: (stepsDone: number, steps: number) => void },
+): Outcome {
   const t0 = nowSeconds();
   const refuse = (reason: string, code: RefusalCode): Outcome => ({ kind: 'refused', method: METHOD, reason, code });
   const precision = opts.precision;
@@ -118,10 +128,12 @@ export function solveEuler(m: CompiledModel, opts: { precision: number; maxWork?
   const incSlack = (d + 4) * u;
   let post = 0;
   setStep(h);
+  const onProgress = opts.onProgress;
   for (let i = 0; i < nFull; i++) {
     const inc = eulerStep(m, active, hR, buf, choice);
     post += lh * (inc + incSlack * lh);
     if (log && choice) log.record(choice, i * h);
+    if (onProgress && (i & (PROGRESS_EVERY - 1)) === 0) onProgress(i, steps);
   }
   if (hLast > 0) {
     setStep(hLast);

@@ -109,8 +109,8 @@ describe('the precision a method ran at', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/kettle-scale .* euler@1e-5 /);
     const euler = json(out('p.json')).models[0].methods.find((m: { label: string }) => m.label === 'euler');
-    expect(euler).toMatchObject({ status: 'solved', requestedPrecision: 1e-6, precision: 1e-5 });
-    expect(euler.errorBound).toBeLessThanOrEqual(1e-5);
+    expect(euler).toMatchObject({ status: 'solved', requested_precision: 1e-6, precision: 1e-5 });
+    expect(euler.error_bound).toBeLessThanOrEqual(1e-5);
     expect(readFileSync(out('p.xml'), 'utf8')).toMatch(/name="agree euler@1e-5 ~ oracle"/);
     expect(readFileSync(out('p.html'), 'utf8')).toMatch(/<td>euler@1e-5<\/td>/);
   });
@@ -175,7 +175,7 @@ process.stdout.write(JSON.stringify(r));
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/solver:nobound\.mjs#1: no error_bound; the bound used on 1 model\(s\) is the user's --default-bound/);
     const m = json(out('d.json')).models[0].methods.find((x: { label: string }) => x.label === 'solver:nobound.mjs#1');
-    expect(m).toMatchObject({ status: 'solved', boundAssumed: true, errorBound: 1e-6 });
+    expect(m).toMatchObject({ status: 'solved', bound_assumed: true, error_bound: 1e-6 });
     expect(readFileSync(out('d.xml'), 'utf8')).toMatch(/name="agree oracle ~ solver:nobound\.mjs#1\[bound assumed\]"/);
   });
   it('a refusal is recorded as a refusal, not a fault; alone it leaves the model unchecked', () => {
