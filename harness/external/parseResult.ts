@@ -24,10 +24,19 @@ import type { GoalMode } from '../../corpus/format/types.js';
 
 export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
 
+/**
+ * What the solver says it is, for the qualification record: its `method`, and its `version` when it
+ * gives one (a string or a number; anything else is ignored, as other extra keys are).
+ */
+export interface ReportedIdentity {
+  readonly method: string;
+  readonly version?: string;
+}
+
 export type ParseOutcome =
-  | { ok: true; solved: Solved; boundAssumed?: true }
+  | { ok: true; solved: Solved; boundAssumed?: true; reported: ReportedIdentity }
   | { ok: false; fault: ParseFault; detail: string }
-  | { ok: 'refused'; reason: string };
+  | { ok: 'refused'; reason: string; reported: ReportedIdentity };
 
 /**
  * Slack on [0, 1]. A value is a probability, but it is computed in floating point: a convex
@@ -91,9 +100,11 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   if (doc.format !== 'crossbound-result/1') return fail('bad-format', `\`format\` is ${JSON.stringify(doc.format) ?? 'missing'}, not "crossbound-result/1"`);
   if (typeof doc.method !== 'string' || doc.method === '') return fail('bad-format', '`method` is missing or not a non-empty string');
   if (doc.model !== undefined && typeof doc.model !== 'string') return fail('bad-format', '`model` is not a string');
+  const version = typeof doc.version === 'string' || typeof doc.version === 'number' ? { version: String(doc.version) } : {};
+  const reported: ReportedIdentity = { method: doc.method, ...version };
   if (doc.refused !== undefined && doc.values === undefined) {
     if (typeof doc.refused !== 'string' || doc.refused.trim() === '') return fail('bad-format', '`refused` is not a non-empty string');
-    return { ok: 'refused', reason: doc.refused };
+    return { ok: 'refused', reason: doc.refused, reported };
   }
   if (!isPlainObject(doc.values)) return fail('bad-format', '`values` is missing or not an object');
 
@@ -178,5 +189,5 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
     ...(scheduler ? { scheduler } : {}),
     stats,
   };
-  return assumed ? { ok: true, solved, boundAssumed: true } : { ok: true, solved };
+  return assumed ? { ok: true, solved, boundAssumed: true, reported } : { ok: true, solved, reported };
 }
