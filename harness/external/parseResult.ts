@@ -171,7 +171,7 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   // --- the bound ---
   const assumed = (doc.error_bound === undefined || doc.error_bound === null) && expect.defaultBound !== undefined;
   const eb = assumed ? expect.defaultBound : doc.error_bound;
-  if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked');
+  if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked (--default-bound precision or --default-bound B assumes one)');
   if (typeof eb !== 'number') return fail('no-bound', `\`error_bound\` is ${JSON.stringify(eb)}, not a number`);
   if (!Number.isFinite(eb) || eb < 0) return fail('no-bound', `\`error_bound\` is ${eb}: it must be a finite number ≥ 0`);
 

@@ -217,7 +217,7 @@ const sameEnv = (a: Environment, b: Environment): boolean => JSON.stringify(a) =
  * and commit) on the same external solvers (templates, in order); else the problem is returned in
  * one line, and merge refuses. The date is the earliest start, the duration the sum of the shards'
  * (their machine time, not the wall time of a parallel CI run), the environment the first shard's,
- * with any others listed; the command is the merge's, with each shard's kept.
+ * with any others listed; the command is the merge's (run here), with each shard's kept.
  */
 export function mergeStamps(entries: readonly { file: string; stamp: RunStamp }[], mergeCommand: string): RunStamp | string {
   const first = entries[0]!;
@@ -237,6 +237,7 @@ export function mergeStamps(entries: readonly { file: string; stamp: RunStamp }[
     date: entries.map((e) => e.stamp.date).sort()[0]!,
     duration_seconds: entries.reduce((t, e) => t + e.stamp.duration_seconds, 0),
     command: mergeCommand,
+    working_directory: process.cwd(),
     shard_commands: entries.map((e) => e.stamp.command),
     ...(others.length > 0 ? { other_environments: others } : {}),
   };

@@ -163,16 +163,21 @@ ${parts.join('\n')}</section>`;
 }
 
 /**
- * Failed checks grouped under the method they implicate: of the methods a failed check involves,
- * the one involved in the most failed checks of the run (ties: the first named).
+ * Failed checks grouped under what they implicate: when answers of two or more families all miss a
+ * model file's `expect` values, those values ('expect values of MODEL'); otherwise, of the methods a
+ * failed check involves, the one involved in the most failed checks of the run (ties: the first named).
  */
 export function failuresByMethod(reports: readonly ModelReport[]): { method: string; failures: { r: ModelReport; c: CheckResult }[] }[] {
   const failures = reports.flatMap((r) => r.checks.filter((c) => c.status === 'failed').map((c) => ({ r, c })));
   const count = new Map<string, number>();
   for (const { c } of failures) for (const m of c.methods) count.set(m, (count.get(m) ?? 0) + 1);
+  const familyOf = (r: ModelReport, label: string): string => r.methods.find((m) => m.label === label)?.family ?? label;
+  const expectMissedBy = (r: ModelReport): number =>
+    new Set(r.checks.filter((c) => c.kind === 'expect' && c.status === 'failed').flatMap((c) => c.methods.map((l) => familyOf(r, l)))).size;
   const groups = new Map<string, { r: ModelReport; c: CheckResult }[]>();
   for (const f of failures) {
-    const blamed = f.c.methods.reduce((a, b) => ((count.get(b) ?? 0) > (count.get(a) ?? 0) ? b : a), f.c.methods[0] ?? '-');
+    const byCount = f.c.methods.reduce((a, b) => ((count.get(b) ?? 0) > (count.get(a) ?? 0) ? b : a), f.c.methods[0] ?? '-');
+    const blamed = f.c.kind === 'expect' && expectMissedBy(f.r) >= 2 ? `expect values of ${f.r.model}` : byCount;
     groups.set(blamed, [...(groups.get(blamed) ?? []), f]);
   }
   return [...groups].map(([method, fs]) => ({ method, failures: fs })).sort((a, b) => b.failures.length - a.failures.length);
