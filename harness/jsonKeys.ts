@@ -8,8 +8,10 @@
  * they are copied unchanged, in both directions.
  */
 
-/** Fields whose value is a mapping keyed by names from the model. */
-const NAME_KEYED: ReadonlySet<string> = new Set(['choices']);
+/** Fields whose value is a mapping keyed by names from the model or from a solver (its own `params`). */
+const NAME_KEYED: ReadonlySet<string> = new Set(['choices', 'params']);
+/** Fields written in snake_case already and copied whole (the run's identity, with solvers' own names inside). */
+const VERBATIM: ReadonlySet<string> = new Set(['identity']);
 
 /** `errorBound` → `error_bound`, `lambdaT` → `lambda_t`, `aPrioriBound` → `a_priori_bound`. */
 export function snakeKey(key: string): string {
@@ -26,7 +28,7 @@ function mapKeys(value: unknown, rename: (key: string) => string): unknown {
   if (value === null || typeof value !== 'object') return value;
   const out: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(value)) {
-    out[rename(k)] = NAME_KEYED.has(k) ? copyNames(v, rename) : mapKeys(v, rename);
+    out[rename(k)] = VERBATIM.has(k) ? v : NAME_KEYED.has(k) ? copyNames(v, rename) : mapKeys(v, rename);
   }
   return out;
 }

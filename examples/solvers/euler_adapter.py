@@ -3,6 +3,12 @@
 
     crossbound check corpus --solver 'python3 examples/solvers/euler_adapter.py {model} {precision}'
 
+Two options play other kinds of solver, to show how crossbound records them:
+  --refuse-games  refuses two-player games (a model with states of both the max and the min player),
+                  as a solver for CTMCs and CTMDPs only would;
+  --no-bound      prints no error_bound, as a solver that only knows the tolerance it was asked for
+                  would (its answer is then a fault unless the user passes --default-bound).
+
 It reads the model file the harness writes (format crossbound/1, JSON, the `states` form) and prints
 one result (format crossbound-result/1) on standard output. It is honest and simple rather than fast:
 
@@ -14,7 +20,8 @@ one result (format crossbound-result/1) on standard output. It is honest and sim
   u = 2^-53) and u to the value when the increment is added: in all (d + 3) * u * lam * T + n * u, a
   first-order sum with a margin of 10 % (the second-order part is far smaller); the bound states it.
 - It refuses (prints {"refused": ...}) when n * (states + transitions) would exceed WORK_CAP, so that
-  it never runs for minutes; a refusal is not a fault.
+  it never runs for minutes; a refusal is not a fault. As n grows like (lam*T)^2 / precision, most
+  models of the bundled corpus are refused at the default precision 1e-6 and answered at 1e-3.
 Goal states are absorbing in goal mode `within` and keep their actions in mode `at`.
 """
 import json
@@ -23,15 +30,21 @@ import sys
 
 WORK_CAP = 3e7
 U = 2.0 ** -53
+VERSION = "1.1"
+
+
+FLAGS = {"--refuse-games", "--no-bound"}
 
 
 def main() -> int:
-    if len(sys.argv) != 3:
-        print("usage: euler_adapter.py MODEL.json PRECISION", file=sys.stderr)
+    args = [a for a in sys.argv[1:] if a not in FLAGS]
+    flags = set(sys.argv[1:]) & FLAGS
+    if len(args) != 2:
+        print("usage: euler_adapter.py MODEL.json PRECISION [--refuse-games] [--no-bound]", file=sys.stderr)
         return 2
-    with open(sys.argv[1], encoding="utf-8") as f:
+    with open(args[0], encoding="utf-8") as f:
         model = json.load(f)
-    precision = float(sys.argv[2])
+    precision = float(args[1])
     names = list(model["states"].keys())
     index = {s: i for i, s in enumerate(names)}
     goal = set(model["goal"])
@@ -50,10 +63,17 @@ def main() -> int:
     lam = max((sum(r for _, r in a) for acts in rows for a in acts), default=0.0)
     d = max((len(a) for acts in rows for a in acts), default=0)
     work = len(names) + sum(len(a) for acts in rows for a in acts)
-    result = {"format": "crossbound-result/1", "model": model.get("name"), "method": "python-euler"}
+    result = {"format": "crossbound-result/1", "model": model.get("name"), "method": "python-euler", "version": VERSION}
+    players = {st.get("owner") for st in model["states"].values() if len(st.get("actions", {})) >= 2}
+    if "--refuse-games" in flags and {"max", "min"} <= players:
+        result["refused"] = "two-player games are not supported"
+        print(json.dumps(result))
+        return 0
     v = [1.0 if s in goal else 0.0 for s in names]
     if lam == 0.0:
-        result.update(values=dict(zip(names, v)), error_bound=0.0, params={"precision": precision})
+        result.update(values=dict(zip(names, v)), params={"precision": precision})
+        if "--no-bound" not in flags:
+            result["error_bound"] = 0.0
         print(json.dumps(result))
         return 0
     lt = lam * T
@@ -79,6 +99,8 @@ def main() -> int:
         v = nxt
     bound = lam * lam * T * h * (1 + 1e-9) + rounding
     result.update(values=dict(zip(names, v)), error_bound=bound, params={"precision": precision, "steps": n})
+    if "--no-bound" in flags:
+        del result["error_bound"]
     print(json.dumps(result))
     return 0
 

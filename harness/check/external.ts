@@ -46,13 +46,14 @@ export async function runExternalMethod(
     timeoutMs: opts.timeoutMs ?? 60_000,
     ...(opts.defaultBound !== undefined ? { defaultBound: opts.defaultBound === 'precision' ? opts.precision : opts.defaultBound } : {}),
   });
-  if (out.kind === 'refused') return { ...id, status: 'refused', code: 'unspecified', reason: out.reason, seconds: out.seconds };
+  if (out.kind === 'refused') return { ...id, status: 'refused', code: 'unspecified', reason: out.reason, seconds: out.seconds, reported: out.reported };
   if (out.kind === 'fault') {
     const tail = out.stderrTail?.trim().split('\n').pop();
     const reason = tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail;
     return { ...id, status: 'fault', fault: out.fault, reason, seconds: out.seconds };
   }
-  const solved = solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+  const reported = { ...out.reported, ...(Object.keys(out.solved.params).length > 0 ? { params: { ...out.solved.params } } : {}) };
+  const solved = { ...solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds), reported };
   return out.boundAssumed ? { ...solved, boundAssumed: true } : solved;
 }
 

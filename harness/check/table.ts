@@ -1,4 +1,5 @@
 /** The terminal table of `check`, and the list of failures with the command that reproduces each. */
+import { coverageBlock } from './coverage.js';
 import { commonFailingMethod, summarize } from './summary.js';
 import { modelVerdict, shownLabel, uncheckedReason, type ModelReport, type SolvedMethod } from './types.js';
 import { formatRatio, formatScalar, formatValue } from '../numbers.js';
@@ -60,6 +61,8 @@ export function formatCheckReport(reports: readonly ModelReport[], opts: TableOp
   const out = [formatTable(header, rows)];
   const notes = assumedBoundNotes(reports);
   if (notes.length > 0) out.push('', 'Bounds assumed by the user (marked [bound assumed]):', ...notes.map((n) => `  ${n}`));
+  const solverLines = coverageBlock(reports);
+  if (solverLines.length > 0) out.push('', ...solverLines);
   const auditText = formatAudit(reports);
   if (auditText) out.push('', auditText);
   const unchecked = reports.filter((r) => modelVerdict(r) === 'unchecked');

@@ -24,6 +24,14 @@ interface MethodBase {
   readonly label: string;
   readonly family: Family;
   readonly seconds: number;
+  /** An external solver's account of itself: the `method`, `version` and `params` its answer reported. */
+  readonly reported?: ReportedBy;
+}
+
+export interface ReportedBy {
+  readonly method: string;
+  readonly version?: string;
+  readonly params?: Readonly<Record<string, number | string>>;
 }
 
 export interface SolvedMethod extends MethodBase {

@@ -7,6 +7,7 @@ import { parseMethodList } from './fuzz.js';
 import { formatCheckReport } from '../check/table.js';
 import { checkJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
+import { runIdentity, runStamp } from '../reports/identity.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { parsePositiveInt, parsePrecision, writeFileAtomic } from './output.js';
@@ -55,6 +56,7 @@ export function registerCheck(program: Command, setExit: SetExit): void {
     .option('--default-bound <b>', "bound of an external result without error_bound: 'precision' (the precision asked of it) or a number; marked as assumed")
     .option('--allow-unchecked', 'models where nothing independent was compared do not make the exit code 1', false)
     .action(async (paths: string[], o: CheckCliOptions) => {
+      const startedAt = new Date();
       const precision = parsePrecision(o.precision);
       const methods = await parseMethodList(o.methods ?? '', '--methods');
       const shard = o.shard ? parseShard(o.shard) : undefined;
@@ -89,12 +91,16 @@ export function registerCheck(program: Command, setExit: SetExit): void {
       for (const r of reports) for (const w of r.warnings) process.stderr.write(`crossbound: ${w}\n`);
       const emptyShard = reports.length === 0 ? { ...coverage.shard, corpusFiles: coverage.corpusFiles } : undefined;
       process.stdout.write(`${formatCheckReport(reports, { allowUnchecked, ...(emptyShard ? { emptyShard } : {}) })}\n`);
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(reports, precision, coverage, allowUnchecked)), null, 1)}\n`);
-      if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard }));
+      const seconds = (Date.now() - startedAt.getTime()) / 1000;
+      const stamp = runStamp({ started: startedAt, seconds, precision, templates: o.solver, args: process.argv.slice(2) });
+      const identity = runIdentity(stamp, reports);
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(reports, precision, coverage, allowUnchecked, stamp)), null, 1)}
+`);
+      if (o.junit) writeFileAtomic(o.junit, junitXml(reports, { allowUnchecked, shard: coverage.shard, identity }));
       if (o.report) {
         // Loaded on demand: the plotting library is large and only the report needs it.
         const { htmlReport } = await import('../reports/html.js');
-        writeFileAtomic(o.report, await htmlReport(reports, { precision, allowUnchecked, command: ['crossbound', 'check', ...process.argv.slice(3)].join(' ') }));
+        writeFileAtomic(o.report, await htmlReport(reports, { allowUnchecked, identity }));
       }
       setExit(exitCode);
     });

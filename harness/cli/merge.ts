@@ -13,6 +13,7 @@ import { formatCheckReport } from '../check/table.js';
 import type { ModelReport } from '../check/types.js';
 import { checkJson, type CheckJson } from '../reports/json.js';
 import { junitXml } from '../reports/junit.js';
+import { commandLine, mergeStamps, runIdentity, stampOf, type RunStamp } from '../reports/identity.js';
 import type { SetExit } from './commands.js';
 import { UsageError } from '../errors.js';
 import { writeFileAtomic } from './output.js';
@@ -47,9 +48,11 @@ export interface Merged {
   readonly corpus: CheckJson['corpus'];
   /** Every model file of the corpus, sorted. */
   readonly all: string[];
+  /** The shards' run identities merged (absent when a report carries none: written by an older crossbound). */
+  readonly stamp?: RunStamp;
 }
 
-export function mergeReports(files: readonly string[]): Merged {
+export function mergeReports(files: readonly string[], mergeCommand = 'crossbound merge'): Merged {
   const reports = files.map((f) => ({ f, r: readReport(f) }));
   const first = reports[0]!;
   const count = first.r.shard.count;
@@ -86,7 +89,14 @@ export function mergeReports(files: readonly string[]): Merged {
     throw new MergeRefused(`incomplete reports: no result for ${unreported.length} model file(s), e.g. ${unreported[0]}`);
   }
   models.sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0));
-  return { precision: first.r.precision, models, corpus: first.r.corpus, all };
+  let stamp: RunStamp | undefined;
+  const stamps = reports.flatMap(({ f, r }) => (r.identity ? [{ file: f, stamp: stampOf(r.identity) }] : []));
+  if (stamps.length === reports.length) {
+    const merged = mergeStamps(stamps, mergeCommand);
+    if (typeof merged === 'string') throw new MergeRefused(`the shards ran different builds or solvers: ${merged}`);
+    stamp = merged;
+  }
+  return { precision: first.r.precision, models, corpus: first.r.corpus, all, ...(stamp ? { stamp } : {}) };
 }
 
 export function registerMerge(program: Command, setExit: SetExit): void {
@@ -100,18 +110,19 @@ export function registerMerge(program: Command, setExit: SetExit): void {
     .action((files: string[], o: { json?: string; junit?: string; allowUnchecked: boolean }) => {
       let merged;
       try {
-        merged = mergeReports(files);
+        merged = mergeReports(files, commandLine(process.argv.slice(2)));
       } catch (e) {
         if (!(e instanceof MergeRefused)) throw e;
         process.stderr.write(`crossbound: merge refused: ${e.message}\n`);
         return setExit(1);
       }
-      const { precision, models, corpus, all } = merged;
+      const { precision, models, corpus, all, stamp } = merged;
       const allowUnchecked = o.allowUnchecked;
       process.stdout.write(`${formatCheckReport(models, { allowUnchecked })}\n`);
       const coverage = { shard: { index: 1, count: 1 }, corpusFiles: corpus.files, corpusDigest: corpus.digest, files: all };
-      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(models, precision, coverage, allowUnchecked)), null, 1)}\n`);
-      if (o.junit) writeFileAtomic(o.junit, junitXml(models, { allowUnchecked }));
+      if (o.json) writeFileAtomic(o.json, `${JSON.stringify(toSnakeKeys(checkJson(models, precision, coverage, allowUnchecked, stamp)), null, 1)}
+`);
+      if (o.junit) writeFileAtomic(o.junit, junitXml(models, { allowUnchecked, ...(stamp ? { identity: runIdentity(stamp, models) } : {}) }));
       setExit(summarize(models, allowUnchecked).exitCode);
     });
 }

@@ -25,10 +25,19 @@ import { DECIMAL_TEXT } from '../../corpus/format/numbers.js';
 
 export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
 
+/**
+ * What the solver says it is, for the qualification record: its `method`, and its `version` when it
+ * gives one (a string or a number; anything else is ignored, as other extra keys are).
+ */
+export interface ReportedIdentity {
+  readonly method: string;
+  readonly version?: string;
+}
+
 export type ParseOutcome =
-  | { ok: true; solved: Solved; boundAssumed?: true }
+  | { ok: true; solved: Solved; boundAssumed?: true; reported: ReportedIdentity }
   | { ok: false; fault: ParseFault; detail: string }
-  | { ok: 'refused'; reason: string };
+  | { ok: 'refused'; reason: string; reported: ReportedIdentity };
 
 /**
  * Slack on [0, 1]. A value is a probability, but it is computed in floating point: a convex
@@ -91,9 +100,11 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   if (doc.format !== 'crossbound-result/1') return fail('bad-format', `\`format\` is ${JSON.stringify(doc.format) ?? 'missing'}, not "crossbound-result/1"`);
   if (typeof doc.method !== 'string' || doc.method === '') return fail('bad-format', '`method` is missing or not a non-empty string');
   if (doc.model !== undefined && typeof doc.model !== 'string') return fail('bad-format', '`model` is not a string');
+  const version = typeof doc.version === 'string' || typeof doc.version === 'number' ? { version: String(doc.version) } : {};
+  const reported: ReportedIdentity = { method: doc.method, ...version };
   if (doc.refused !== undefined && doc.values === undefined) {
     if (typeof doc.refused !== 'string' || doc.refused.trim() === '') return fail('bad-format', '`refused` is not a non-empty string');
-    return { ok: 'refused', reason: doc.refused };
+    return { ok: 'refused', reason: doc.refused, reported };
   }
   if (!isPlainObject(doc.values)) return fail('bad-format', '`values` is missing or not an object');
 
@@ -160,7 +171,7 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   // --- the bound ---
   const assumed = (doc.error_bound === undefined || doc.error_bound === null) && expect.defaultBound !== undefined;
   const eb = assumed ? expect.defaultBound : doc.error_bound;
-  if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked');
+  if (eb === undefined || eb === null) return fail('no-bound', '`error_bound` is missing: a value without a bound cannot be checked (--default-bound precision or --default-bound B assumes one)');
   if (typeof eb !== 'number') return fail('no-bound', `\`error_bound\` is ${JSON.stringify(eb)}, not a number`);
   if (!Number.isFinite(eb) || eb < 0) return fail('no-bound', `\`error_bound\` is ${eb}: it must be a finite number ≥ 0`);
 
@@ -178,5 +189,5 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
     ...(scheduler ? { scheduler } : {}),
     stats,
   };
-  return assumed ? { ok: true, solved, boundAssumed: true } : { ok: true, solved };
+  return assumed ? { ok: true, solved, boundAssumed: true, reported } : { ok: true, solved, reported };
 }

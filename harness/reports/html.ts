@@ -1,29 +1,29 @@
 /**
  * The self-contained HTML qualification report of `check --report`: verdict first, then the caution,
- * corpus coverage, the bound audit, every failed check with its model, and the plots (inline SVG).
+ * what was tested (identity, environment, precisions: record.ts), each solver under test's coverage
+ * and evidence, corpus coverage, the bound audit, every failed check with its model grouped by the
+ * method it implicates, the plots (inline SVG), and the command that re-runs it.
  * Nothing is loaded from the network when it is opened.
  */
 import { readFileSync } from 'node:fs';
 import { loadModelFileWithWarnings } from '../../corpus/format/load.js';
 import { auditSummary } from '../check/table.js';
-import { commonFailingMethod, summarize } from '../check/summary.js';
+import { summarize } from '../check/summary.js';
 import { assumedBoundNotes, coarserText } from '../check/table.js';
 import { modelVerdict, uncheckedReason, type ModelReport, type SolvedMethod } from '../check/types.js';
 import { errorPlot, logLogSlope, measureConvergence, measureValueCurve, svgOf, timePlot, valuePlot } from './plots.js';
 import { formatPrecision, formatRatio, formatScalar } from '../numbers.js';
+import { esc, table } from './htmlParts.js';
+import type { RunIdentity } from './identity.js';
+import { evidenceSection, failuresByMethod, identitySection, solverCoverageSection } from './record.js';
+import { solverPlots } from './solverPlots.js';
+import type { Model } from '../../corpus/format/types.js';
 
 export const CAUTION =
   'Agreement between independent solvers is evidence, not proof. A passing report shows that these solvers, ' +
   'on these models, agree within their stated bounds; it does not show that a tool is correct on other models. ' +
   'Qualifying a tool for safety-related work follows the applicable standards and needs qualified, independent review.';
 
-const esc = (s: string): string => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-
-function table(header: string[], rows: string[][]): string {
-  return `<table><thead><tr>${header.map((h) => `<th>${esc(h)}</th>`).join('')}</tr></thead><tbody>${rows
-    .map((r) => `<tr>${r.map((c) => `<td>${esc(c)}</td>`).join('')}</tr>`)
-    .join('')}</tbody></table>`;
-}
 
 const solvedOracle = (r: ModelReport): SolvedMethod | undefined =>
   r.methods.find((m): m is SolvedMethod => m.family === 'oracle' && m.status === 'solved');
@@ -65,15 +65,15 @@ function modelFileText(file: string): string {
 }
 
 function failuresSection(reports: readonly ModelReport[]): string {
-  const failures = reports.flatMap((r) => r.checks.filter((c) => c.status === 'failed').map((c) => ({ r, c })));
-  if (failures.length === 0) return '<p>None: every check that ran held.</p>';
-  const common = commonFailingMethod(reports);
-  const lead = common ? `<p class="common">Every failed check involves method <b>${esc(common)}</b>.</p>` : '';
-  return lead + failures.map(({ r, c }) => {
-    const repro = c.reproduce ? `<p>Reproduce: <code>${esc(c.reproduce)}</code></p>` : '';
-    const model = `<details><summary>model ${esc(r.file)}</summary><pre>${esc(modelFileText(r.file))}</pre></details>`;
-    return `<section class="fail"><h3>${esc(r.model)}: ${esc(c.name)}</h3><p>${esc(c.detail)}</p>${repro}${model}</section>`;
-  }).join('\n');
+  const groups = failuresByMethod(reports);
+  if (groups.length === 0) return '<p>None: every check that ran held.</p>';
+  const lead = '<p>Grouped under the method each failure implicates: of the methods a failed check involves, the one involved in the most failed checks.</p>';
+  return lead + groups.map(({ method, failures }) => `<section class="fail-group" data-method="${esc(method)}"><h3>${esc(method)}: ${failures.length} failed check(s)</h3>` +
+    failures.map(({ r, c }) => {
+      const repro = c.reproduce ? `<p>Reproduce: <code>${esc(c.reproduce)}</code></p>` : '';
+      const model = `<details><summary>model ${esc(r.file)}</summary><pre>${esc(modelFileText(r.file))}</pre></details>`;
+      return `<section class="fail"><h4>${esc(r.model)}: ${esc(c.name)}</h4><p>${esc(c.detail)}</p>${repro}${model}</section>`;
+    }).join('\n') + '</section>').join('\n');
 }
 
 function uncheckedSection(reports: readonly ModelReport[]): string {
@@ -90,7 +90,10 @@ function skippedSection(reports: readonly ModelReport[]): string {
 
 const VERDICT_HTML = { pass: 'PASS', fail: 'FAIL', unchecked: 'UNCHECKED', empty: 'EMPTY' } as const;
 
-export async function htmlReport(reports: readonly ModelReport[], meta: { precision: number; command: string; allowUnchecked: boolean }): Promise<string> {
+export async function htmlReport(reports: readonly ModelReport[], meta: { identity: RunIdentity; allowUnchecked: boolean }): Promise<string> {
+  const id = meta.identity;
+  const cache = new Map<string, Model | null>();
+  const solverSvgs = await solverPlots(reports, id.solver_identity.map((x) => x.id), cache);
   const sum = summarize(reports, meta.allowUnchecked);
   const verdict = VERDICT_HTML[sum.verdict];
   const failed = reports.reduce((n, r) => n + r.checks.filter((c) => c.status === 'failed').length, 0);
@@ -107,7 +110,7 @@ export async function htmlReport(reports: readonly ModelReport[], meta: { precis
     ? table(['method', 'models', 'largest actual error / bound', 'median'], audit.map((a) => [a.method, String(a.models), formatRatio(a.max), formatRatio(a.median)]))
     : '<p>No oracle values: no audit.</p>';
   const headline = `${sum.pass} of ${sum.models} models pass; ${sum.fail} fail; ${sum.unchecked} unchecked; ${failed} failed check(s). ` +
-    `Requested precision ${formatPrecision(meta.precision)}; a method shown as name@precision ran at that coarser precision (a work cap).`;
+    `Requested precision ${formatPrecision(id.precision)}; a method shown as name@precision ran at that coarser precision (a work cap).`;
   return `<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>crossbound qualification report</title>
 <style>
@@ -116,19 +119,24 @@ h1{margin-bottom:.2em} .verdict{font-size:1.6em;font-weight:bold;padding:.4em .8
 .PASS{background:#d8f5d0;color:#174d0c}.FAIL{background:#fadad7;color:#7a120b}.UNCHECKED,.EMPTY{background:#eee;color:#444}
 .caution{border-left:4px solid #c90;background:#fff8e6;padding:.6em 1em}
 table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding:.2em .6em;text-align:right}td:first-child,th:first-child{text-align:left}
-.plots{display:flex;flex-wrap:wrap;gap:1em}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
+.plots{display:flex;flex-wrap:wrap;gap:1em}.assumed{background:#fde8b0;padding:0 .3em;border-radius:3px;font-size:.85em}
+.ok{color:#174d0c}.bad{color:#b00;font-weight:bold}table.identity td{text-align:left}td small{color:#666}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
 </style></head><body>
 <h1>crossbound qualification report</h1>
 <p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${esc(headline)}</p>
 <p class="caution">${esc(CAUTION)}</p>
+${identitySection(id)}
+${solverCoverageSection(reports)}
+${evidenceSection(reports, id, cache)}
 <h2>Corpus coverage</h2><p>${esc(kinds)}; goal modes: ${reports.filter((r) => r.goalMode === 'within').length} within, ${reports.filter((r) => r.goalMode === 'at').length} at.</p>${coverage}
 ${assumedBoundNotes(reports).map((n) => `<p class="caution">Assumed bound: ${esc(n)}</p>`).join('')}
 <h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one.</p>${auditHtml}
 <h2>Disagreements and failed checks</h2>${failuresSection(reports)}
 <h2>Unchecked models</h2>${uncheckedSection(reports)}
 <h2>Skipped checks</h2>${skippedSection(reports)}
-<h2>Plots</h2>${await plotsSection(reports)}
-<p><small>Command: <code>${esc(meta.command)}</code></small></p>
+<h2>Plots</h2>${solverSvgs.length ? `<h3>Solvers under test</h3><div class="plots">${solverSvgs.map((x) => `<figure>${x}</figure>`).join('')}</div><h3>crossbound's own methods</h3>` : ''}${await plotsSection(reports)}
+<section id="rerun"><h2>Re-run</h2><p>The command of this run, quoted for a POSIX shell, from the working directory <code>${esc(id.working_directory)}</code>:</p><pre class="command">${esc(id.command)}</pre>
+${id.shard_commands ? `<p>The shard runs:</p><pre>${esc(id.shard_commands.join('\n'))}</pre>` : ''}</section>
 </body></html>
 `;
 }

@@ -3,7 +3,9 @@
  * the run covered (its shard I/N, the model files it checked, the size and digest of the whole
  * corpus), so that `merge` can refuse an incomplete or overlapping set of shard reports.
  */
+import { solverCoverage } from '../check/coverage.js';
 import type { RunCoverage } from '../check/index.js';
+import { runIdentity, type RunIdentity, type RunStamp } from './identity.js';
 import { summarize, type RunVerdict } from '../check/summary.js';
 import { modelVerdict, type ModelReport, type Verdict } from '../check/types.js';
 
@@ -18,10 +20,23 @@ export interface CheckJson {
   verdict: RunVerdict;
   counts: { models: number; pass: number; fail: number; unchecked: number };
   models: (ModelReport & { verdict: Verdict })[];
+  /** What was tested, by what, when, where, at what precision, and the command (absent in reports of older versions). */
+  identity?: RunIdentity;
+  /** Per external solver: models answered, refused (reasons grouped, numbers as N) and faulted. */
+  solver_coverage: { id: string; methods: string[]; models: number; answered: number; refused: number; faulted: number; refusals: { reason: string; count: number }[] }[];
 }
 
-export function checkJson(reports: readonly ModelReport[], precision: number, coverage: RunCoverage, allowUnchecked: boolean): CheckJson {
+export function checkJson(
+  reports: readonly ModelReport[],
+  precision: number,
+  coverage: RunCoverage,
+  allowUnchecked: boolean,
+  stamp?: RunStamp,
+): CheckJson {
   const s = summarize(reports, allowUnchecked);
+  const solvers = solverCoverage(reports).map((c) => ({
+    id: c.label, methods: c.reportedMethods, models: c.models, answered: c.answered, refused: c.refused, faulted: c.faulted, refusals: c.reasons,
+  }));
   return {
     format: 'crossbound-check/1',
     precision,
@@ -32,5 +47,7 @@ export function checkJson(reports: readonly ModelReport[], precision: number, co
     verdict: s.verdict,
     counts: { models: s.models, pass: s.pass, fail: s.fail, unchecked: s.unchecked },
     models: reports.map((r) => ({ ...r, verdict: modelVerdict(r) })),
+    ...(stamp ? { identity: runIdentity(stamp, reports) } : {}),
+    solver_coverage: solvers,
   };
 }

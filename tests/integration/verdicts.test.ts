@@ -4,7 +4,7 @@
  * incomplete and overlapping shard sets, unstartable solvers, JUnit <failure> and <skipped>, the HTML
  * failure section, and the precision a method ran at.
  */
-import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -98,7 +98,9 @@ describe('failures in every report', () => {
     const html = readFileSync(out('f.html'), 'utf8');
     expect(html).toMatch(/class="verdict FAIL"/);
     expect(html.match(/<section class="fail">/g)?.length).toBe(2);
-    expect(html).toMatch(/<h3>relay-race: expect kstep:2<\/h3><p>state leg3: /);
+    expect(html).toMatch(/<h4>relay-race: expect kstep:2<\/h4><p>state leg3: /);
+    // Two independent families both miss the file's value: the failures implicate the file's expect values, not a method.
+    expect(html).toMatch(/<section class="fail-group" data-method="expect values of relay-race"><h3>expect values of relay-race: 2 failed check\(s\)<\/h3>/);
     expect(html).toMatch(/Reproduce: <code>crossbound check /);
   });
 });
@@ -151,6 +153,21 @@ describe('merge', () => {
     const r = crossbound(['merge', s1, s2, '--json', out('m.json')]);
     expect(r.code).toBe(0);
     expect(json(out('m.json'))).toMatchObject({ verdict: 'pass', counts: { models: 2, pass: 2 }, shard: { index: 1, count: 1 } });
+    // The shards' identities merge: one crossbound, the earliest date, the summed duration, each shard's command.
+    const [a, b, m] = [json(s1).identity, json(s2).identity, json(out('m.json')).identity];
+    expect(m).toMatchObject({ crossbound_version: a.crossbound_version, commit: a.commit, date: [a.date, b.date].sort()[0] });
+    expect(m.duration_seconds).toBeCloseTo(a.duration_seconds + b.duration_seconds, 9);
+    expect(m.shard_commands).toEqual([a.command, b.command]);
+    expect(m.command).toMatch(/^crossbound merge /);
+  });
+  it('refuses (exit 1) shards written by different builds of crossbound', () => {
+    const forged = out('s2-other-commit.json');
+    const doc = json(s2);
+    doc.identity.commit = 'f'.repeat(40);
+    writeFileSync(forged, JSON.stringify(doc));
+    const r = crossbound(['merge', s1, forged]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/merge refused: the shards ran different builds or solvers: .* was written by crossbound commit f{40}, /);
   });
 });
 
@@ -168,15 +185,39 @@ process.stdout.write(JSON.stringify(r));
   it('no error_bound is a fault (exit 1) without --default-bound', () => {
     const r = crossbound(['check', KETTLE, '--methods', 'oracle', '--solver', tpl(noBound)]);
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/fault solver:nobound\.mjs#1: no-bound: `error_bound` is missing/);
+    expect(r.stdout).toMatch(/fault solver:nobound\.mjs#1: no-bound: `error_bound` is missing: .*\(--default-bound precision or --default-bound B assumes one\)/);
   });
-  it('--default-bound precision holds it to the precision asked, marked as assumed in the table, JSON and JUnit', () => {
+  it('--default-bound precision holds it to the precision asked, marked as assumed in the table, JSON and JUnit (HTML: report.test.ts)', () => {
     const r = crossbound(['check', KETTLE, '--methods', 'oracle', '--solver', tpl(noBound), '--default-bound', 'precision', '--json', out('d.json'), '--junit', out('d.xml')]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/solver:nobound\.mjs#1: no error_bound; the bound used on 1 model\(s\) is the user's --default-bound/);
     const m = json(out('d.json')).models[0].methods.find((x: { label: string }) => x.label === 'solver:nobound.mjs#1');
     expect(m).toMatchObject({ status: 'solved', bound_assumed: true, error_bound: 1e-6 });
     expect(readFileSync(out('d.xml'), 'utf8')).toMatch(/name="agree oracle ~ solver:nobound\.mjs#1\[bound assumed\]"/);
+  });
+  it('JUnit: every test suite carries the run identity as <properties>', () => {
+    const xml = readFileSync(out('d.xml'), 'utf8');
+    const props = Object.fromEntries([...xml.split('</properties>')[0]!.matchAll(/<property name="([^"]+)" value="([^"]*)"\/>/g)].map((m) => [m[1], m[2]]));
+    const pkg = json('package.json') as { version: string };
+    expect(props).toMatchObject({ 'crossbound.version': pkg.version, node: process.version, precision: '1e-6', 'solver.1.id': 'solver:nobound.mjs#1', 'solver.1.method': 'kstep' });
+    expect(props['crossbound.commit']).toMatch(/^([0-9a-f]{40}|unknown)$/);
+    expect(props.date).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
+    expect(props['solver.1.template']).toBe(tpl(noBound));
+    expect(props.command).toMatch(/^crossbound check corpus\/models\/kettle-scale\.yaml --methods oracle --solver /);
+    // One suite per model, each with the same properties.
+    expect(xml.match(/<properties>/g)?.length).toBe(xml.match(/<testsuite /g)?.length);
+  });
+  it('a solver that refuses two-player games: exit 0 when other families still check every model; its coverage line counts the refusals', () => {
+    const games = 'tests/fixtures/solvers/refuse-games.mjs';
+    const r = crossbound(['check', KETTLE, 'corpus/models/thermostat-duel.yaml', '--methods', 'kstep:3,oracle', '--precision', '1e-4',
+      '--solver', `node ${games} {model} {precision}`, '--json', out('g.json'), '--report', out('g.html')]);
+    expect(r.code, r.stdout).toBe(0);
+    const line = 'solver:refuse-games.mjs#1 (no-games): answered 1 of 2, refused 1: two-player games are not supported (1)';
+    expect(r.stdout).toContain(`\n  ${line}\n`);
+    expect(json(out('g.json')).solver_coverage).toEqual([
+      { id: 'solver:refuse-games.mjs#1', methods: ['no-games'], models: 2, answered: 1, refused: 1, faulted: 0, refusals: [{ reason: 'two-player games are not supported', count: 1 }] },
+    ]);
+    expect(readFileSync(out('g.html'), 'utf8')).toContain(`<li class="coverage">${line}</li>`);
   });
   it('a refusal is recorded as a refusal, not a fault; alone it leaves the model unchecked', () => {
     const r = crossbound(['check', KETTLE, '--methods', 'none', '--solver', tpl(refuses), '--json', out('r.json')]);

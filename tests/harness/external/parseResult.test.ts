@@ -30,6 +30,13 @@ describe('parseResult', () => {
     expect(r.solved.errorBound).toBe(1e-6);
     expect(r.solved.params).toEqual({ k: 3, precision: 1e-6 });
     expect(r.solved.valuesDecimal).toEqual(['0.41234', '0.7', '1']);
+    expect(r.reported).toEqual({ method: 'kstep' });
+  });
+  it('keeps the version the solver reports (a string or a number) for the qualification record; ignores any other type', () => {
+    const v = (version: unknown) => { const r = parse({ ...good(), version }); return r.ok === true ? r.reported : undefined; };
+    expect(v('2.1.0-rc1')).toEqual({ method: 'kstep', version: '2.1.0-rc1' });
+    expect(v(3)).toEqual({ method: 'kstep', version: '3' });
+    expect(v({ major: 2 })).toEqual({ method: 'kstep' });
   });
   it('carries a scheduler and drops a partial values_decimal', () => {
     const r = parse({ ...good(), values_decimal: { both_ok: '0.41234' }, scheduler: { format: 'crossbound-scheduler/1', choices: { both_ok: [{ from: 0, action: 'run_b' }] } } });
@@ -92,7 +99,7 @@ describe('parseResult', () => {
   });
   it('a refusal (refused, no values) is a refusal, not a fault; an empty or non-string reason is bad-format', () => {
     expect(parse({ format: 'crossbound-result/1', method: 'mysolver', refused: 'two-player games are not supported' }))
-      .toEqual({ ok: 'refused', reason: 'two-player games are not supported' });
+      .toEqual({ ok: 'refused', reason: 'two-player games are not supported', reported: { method: 'mysolver' } });
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: '' })).toBe('bad-format');
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: 42 })).toBe('bad-format');
   });

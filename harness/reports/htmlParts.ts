@@ -1,0 +1,16 @@
+/** Small pieces the HTML reports are built from: escaping and tables. */
+
+export const esc = (s: string): string =>
+  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** A table of text cells (escaped here). */
+export function table(header: readonly string[], rows: readonly (readonly string[])[], cls?: string): string {
+  return htmlTable(header.map(esc), rows.map((r) => r.map(esc)), cls);
+}
+
+/** A table of cells that are HTML already (the caller escaped every text in them). */
+export function htmlTable(header: readonly string[], rows: readonly (readonly string[])[], cls?: string): string {
+  const head = `<thead><tr>${header.map((h) => `<th>${h}</th>`).join('')}</tr></thead>`;
+  const body = `<tbody>${rows.map((r) => `<tr>${r.map((c) => `<td>${c}</td>`).join('')}</tr>`).join('')}</tbody>`;
+  return `<table${cls ? ` class="${cls}"` : ''}>${head}${body}</table>`;
+}
