@@ -55,6 +55,12 @@ export function registerSolve(program: Command, setExit: SetExit): void {
         process.stderr.write(`crossbound: ${file}: ${o.method} failed its own self-check (a fault): ${out.reason}\n`);
         return setExit(1);
       }
+      if (out.kind === 'refused' && o.json) {
+        // With --json a refusal is a result (crossbound-result/1, as an external solver gives it): exit 0.
+        const refusal = { format: 'crossbound-result/1', model: model.name, method: out.method, refused: out.reason, ...(out.code ? { code: out.code } : {}) };
+        process.stdout.write(`${JSON.stringify(refusal, null, 2)}\n`);
+        return setExit(0);
+      }
       if (out.kind === 'refused') throw new UsageError(`${file}: ${o.method} refused (${out.code ?? 'unspecified'}): ${out.reason}`);
       const json = toResultJson(out, { name: model.name, timeBound: model.timeBound, goalMode: model.goalMode, stateNames: compiled.stateNames });
       if (o.json) {

@@ -1,6 +1,6 @@
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
-import { crossbound, expectOneLineError, tempFile } from './cli.js';
+import { CLI, crossbound, expectOneLineError, tempFile } from './cli.js';
 
 // Two-state chain, goal mode `at`: p_clean(T) = a/(a+b)(1 − e^{−(a+b)T}) with a = 0.4, b = 1.1, T = 3
 // (S. M. Ross, Introduction to Probability Models), evaluated with decimal.js 10.6.0.
@@ -37,6 +37,21 @@ describe('crossbound solve (the built CLI)', () => {
   it('refuses uniformization on a model with choices and no scheduler: exit 2, one line', () => {
     const line = expectOneLineError(crossbound(['solve', 'corpus/models/ferry-crossing.yaml', '--method', 'uniformization']));
     expect(line).toMatch(/ferry-crossing\.yaml: uniformization refused/);
+  });
+  it('with --json a refusal is a result (format crossbound-result/1, key refused, its code), exit 0', () => {
+    const r = crossbound(['solve', 'corpus/models/ferry-crossing.yaml', '--method', 'uniformization', '--json']);
+    expect(r.code).toBe(0);
+    const res = JSON.parse(r.stdout);
+    expect(res).toMatchObject({ format: 'crossbound-result/1', model: 'ferry-crossing', method: 'uniformization', code: 'out-of-scope' });
+    expect(res.refused).toMatch(/uniformization needs a CTMC or a fixed scheduler/);
+    expect(res).not.toHaveProperty('values');
+  });
+  it('solve --json serves as an external solver: its refusal is counted in its coverage, not a fault', () => {
+    const template = `${process.execPath} ${CLI} solve {model} --method uniformization --precision {precision} --json`;
+    const r = crossbound(['check', 'corpus/models/kettle-scale.yaml', 'corpus/models/ferry-crossing.yaml', '--methods', 'euler,kstep:2', '--solver', template, '--jobs', '1']);
+    expect(r.code).toBe(0);
+    // reasons are grouped with their numbers replaced by N
+    expect(r.stdout).toMatch(/answered 1 of 2, refused 1: state 'dock' has N actions: uniformization needs a CTMC or a fixed scheduler \(1\)/);
   });
   it('bad usage is exit 2 with one line: unknown method, bad precision, missing file', () => {
     expect(expectOneLineError(crossbound(['solve', 'corpus/models/kettle-scale.yaml', '--method', 'magic']))).toMatch(/method/);
