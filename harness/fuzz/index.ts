@@ -41,7 +41,13 @@ export interface FuzzOptions {
  */
 export type FuzzEvent =
   | { readonly kind: 'model'; readonly index: number; readonly total: number }
-  | { readonly kind: 'found'; readonly index: number; readonly total: number; readonly states: number; readonly check: string }
+  | {
+      readonly kind: 'found';
+      readonly index: number;
+      readonly total: number;
+      readonly states: number;
+      readonly check: string;
+    }
   | { readonly kind: 'shrink'; readonly tried: number; readonly successful: number; readonly states: number };
 
 export interface FuzzFailure {
