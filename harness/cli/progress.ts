@@ -13,6 +13,7 @@
  * without timing.
  */
 import cliProgress from 'cli-progress';
+import type { FuzzEvent } from '../fuzz/index.js';
 import { formatSeconds } from '../numbers.js';
 
 /** Seconds on a monotone clock. */
@@ -106,7 +107,11 @@ export class BarView implements ProgressView {
 }
 
 /** A bar on a terminal, plain lines otherwise. */
-export function viewFor(prefix: string, stream: NodeJS.WriteStream = process.stderr, clock: Clock = systemClock): ProgressView {
+export function viewFor(
+  prefix: string,
+  stream: NodeJS.WriteStream = process.stderr,
+  clock: Clock = systemClock,
+): ProgressView {
   return stream.isTTY ? new BarView(prefix, stream) : new LineView((l) => stream.write(l), clock, prefix);
 }
 
@@ -141,18 +146,16 @@ export class CheckProgress {
     const elapsed = this.clock() - this.t0;
     if (this.done === this.total) return `models in ${formatSeconds(elapsed)}`;
     const solving = this.inFlight.size > 0 ? `; solving ${formatInFlight([...this.inFlight.values()])}` : '';
-    return `models, ${formatSeconds(elapsed)} elapsed, ${formatLeft(estimateLeft(elapsed, this.done, this.total))}${solving}`;
+    const left = formatLeft(estimateLeft(elapsed, this.done, this.total));
+    return `models, ${formatSeconds(elapsed)} elapsed, ${left}${solving}`;
   }
   private show(final: boolean): void {
     this.view.update(this.done, this.total, this.text(), final);
   }
 }
 
-/** The events of a fuzz run (harness/fuzz), as the progress logic reads them. */
-export type FuzzProgressEvent =
-  | { readonly kind: 'model'; readonly index: number; readonly total: number }
-  | { readonly kind: 'found'; readonly index: number; readonly total: number; readonly states: number; readonly check: string }
-  | { readonly kind: 'shrink'; readonly tried: number; readonly successful: number; readonly states: number };
+/** The events of a fuzz run (harness/fuzz). */
+export type FuzzProgressEvent = FuzzEvent;
 
 /**
  * Progress of `fuzz`: the model number it is at, elapsed and the estimate; once a check fails, that
@@ -184,7 +187,8 @@ export class FuzzProgress {
     if (this.shrink) {
       const s = this.shrink;
       this.view.stop();
-      this.view.note(`shrunk in ${formatSeconds(this.elapsed())}: ${s.tried} step(s) tried, ${s.successful} successful, ${s.states} state(s)`);
+      const steps = `${s.tried} step(s) tried, ${s.successful} successful`;
+      this.view.note(`shrunk in ${formatSeconds(this.elapsed())}: ${steps}, ${s.states} state(s)`);
     } else {
       this.view.update(this.total, this.total, `models in ${formatSeconds(this.elapsed())}`, true);
     }
@@ -194,8 +198,8 @@ export class FuzzProgress {
     const elapsed = this.elapsed();
     if (this.shrink) {
       const s = this.shrink;
-      return `models; shrinking a failure: ${s.tried} step(s) tried, ${s.successful} successful, now ${s.states} state(s), ` +
-        `${formatSeconds(elapsed)} elapsed`;
+      const steps = `${s.tried} step(s) tried, ${s.successful} successful`;
+      return `models; shrinking a failure: ${steps}, now ${s.states} state(s), ${formatSeconds(elapsed)} elapsed`;
     }
     const left = formatLeft(estimateLeft(elapsed, this.at - 1, this.total));
     return `models done, at model ${this.at}, ${formatSeconds(elapsed)} elapsed, ${left}`;
@@ -228,6 +232,7 @@ export class SolveProgress {
   }
   text(done: number, total: number, elapsed: number): string {
     const pct = Math.min(100, Math.floor((100 * done) / total));
-    return `${this.method}: ${pct} %, ${formatSeconds(elapsed)} elapsed, ${formatLeft(estimateLeft(elapsed, done, total))}`;
+    const left = formatLeft(estimateLeft(elapsed, done, total));
+    return `${this.method}: ${pct} %, ${formatSeconds(elapsed)} elapsed, ${left}`;
   }
 }

@@ -41,7 +41,13 @@ export interface FuzzOptions {
  */
 export type FuzzEvent =
   | { readonly kind: 'model'; readonly index: number; readonly total: number }
-  | { readonly kind: 'found'; readonly index: number; readonly total: number; readonly states: number; readonly check: string }
+  | {
+      readonly kind: 'found';
+      readonly index: number;
+      readonly total: number;
+      readonly states: number;
+      readonly check: string;
+    }
   | { readonly kind: 'shrink'; readonly tried: number; readonly successful: number; readonly states: number };
 
 export interface FuzzFailure {
@@ -155,7 +161,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   ].join(' ');
   const replay = `crossbound fuzz --seed ${opts.seed} --runs ${opts.runs} --max-states ${opts.maxStates} --precision ${formatPrecision(opts.precision)} ` +
     `--methods ${opts.methods.join(',') || 'none'}${solverArgs ? ` ${solverArgs}` : ''}`;
-  const savedTo = opts.save ? saveRegression(opts.save, failure, opts, replay) : undefined;
+  const savedTo = opts.save ? saveRegression(opts.save, await withSelfLoops(failure, opts), opts, replay) : undefined;
   const methods = [...opts.methods, FUZZ_REFERENCE].join(',');
   const reproduce = savedTo
     ? `crossbound check ${shellQuote(savedTo)} --precision ${formatPrecision(opts.precision)} --methods ${methods}${solverArgs ? ` ${solverArgs}` : ''}`
@@ -163,7 +169,44 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   return { runs: out.numRuns, drawn, seed: opts.seed, seconds, failure: { ...failure, reproduce, ...(savedTo ? { savedTo } : {}) } };
 }
 
-function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>, opts: FuzzOptions, replay: string): string {
+/**
+ * The counterexample as it will be saved: an action without successors (which the corpus would warn
+ * about) written as a self-loop at rate 1 — the same dynamics — provided the model still fails the same
+ * check that way (an external solver may treat the two forms differently); otherwise as drawn.
+ */
+async function withSelfLoops(
+  f: Omit<FuzzFailure, 'reproduce' | 'savedTo'>,
+  opts: FuzzOptions,
+): Promise<Omit<FuzzFailure, 'reproduce' | 'savedTo'> & { note?: string }> {
+  const states = f.model.states;
+  if (!states) return f;
+  const empty: string[] = [];
+  const loops: NonNullable<ModelObject['states']> = {};
+  for (const [s, st] of Object.entries(states)) {
+    const actions = Object.fromEntries(
+      Object.entries(st.actions ?? {}).map(([a, succ]) => {
+        if (Object.keys(succ).length > 0) return [a, succ];
+        empty.push(`${s}.${a}`);
+        return [a, { [s]: 1 }];
+      }),
+    );
+    loops[s] = { ...st, actions };
+  }
+  if (empty.length === 0) return f;
+  const model = { ...f.model, states: loops };
+  const r = await judgeModel(model, opts);
+  if (!r.checks.some((c) => c.status === 'failed' && c.name === f.failed[0]!.name)) return f;
+  const note = `Action(s) ${empty.join(', ')} had no successors as shrunk and are written as self-loops at rate 1 ` +
+    '(no effect on the dynamics; the model fails the same check this way).';
+  return { ...f, model, note };
+}
+
+function saveRegression(
+  dir: string,
+  f: Omit<FuzzFailure, 'reproduce' | 'savedTo'> & { note?: string },
+  opts: FuzzOptions,
+  replay: string,
+): string {
   mkdirSync(dir, { recursive: true });
   const model = buildModel(f.model, 'fuzz');
   const first = f.failed[0]!;
@@ -174,6 +217,7 @@ function saveRegression(dir: string, f: Omit<FuzzFailure, 'reproduce' | 'savedTo
     `Shrunk by crossbound fuzz (seed ${f.seed}, path ${f.path}, precision ${formatPrecision(opts.precision)}, methods ${opts.methods.join(',')}). ` +
     `Verdict: ${first.name}: ${first.detail}. Found by: ${replay}. ` +
     `Kept forever as a regression; every correct solver must pass it.` +
+    (f.note ? ` ${f.note}` : '') +
     (f.model.description ? ` The model as drawn: ${f.model.description}` : '');
   writeFileSync(file, `${JSON.stringify(json, null, 2)}\n`);
   return file;
