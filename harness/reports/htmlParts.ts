@@ -8,9 +8,9 @@ export function table(header: readonly string[], rows: readonly (readonly string
   return htmlTable(header.map(esc), rows.map((r) => r.map(esc)), cls);
 }
 
-/** A table of cells that are HTML already (the caller escaped every text in them). */
+/** A table of cells that are HTML already (the caller escaped every text in them); no header row when `header` is empty. */
 export function htmlTable(header: readonly string[], rows: readonly (readonly string[])[], cls?: string): string {
-  const head = `<thead><tr>${header.map((h) => `<th>${h}</th>`).join('')}</tr></thead>`;
+  const head = header.length > 0 ? `<thead><tr>${header.map((h) => `<th>${h}</th>`).join('')}</tr></thead>` : '';
   const body = `<tbody>${rows.map((r) => `<tr>${r.map((c) => `<td>${c}</td>`).join('')}</tr>`).join('')}</tbody>`;
   return `<table${cls ? ` class="${cls}"` : ''}>${head}${body}</table>`;
 }

@@ -37,7 +37,7 @@ export function identitySection(id: RunIdentity): string {
         esc(s.methods.join(', ') || '-'), esc(s.versions.join(', ') || 'none reported'),
         esc(Object.entries(s.params).map(([k, v]) => `${k} = ${v}`).join(', ') || '-'),
       ]), 'identity');
-  return `<section id="identity"><h2>What was tested</h2>${htmlTable(['', ''], rows.map(([k, v]) => [esc(k), v]), 'identity')}
+  return `<section id="identity"><h2>What was tested</h2>${htmlTable([], rows.map(([k, v]) => [esc(k), v]), 'identity')}
 <h3>Solvers under test</h3>${solvers}</section>`;
 }
 
@@ -47,7 +47,7 @@ function ranAtText(id: RunIdentity): string {
     if (r.method === 'oracle') return `oracle at ${Math.round(-Math.log10(a.precision))} digits (${a.models})`;
     const name = a.precision === id.precision ? r.method : `${r.method}@${formatPrecision(a.precision)}`;
     return `${name} (${a.models})`;
-  }).join(', '))).join('; <br>') + ' <small>(models per precision; name@precision: ran coarser than asked, a work cap; the oracle runs at the digits asked of it)</small>';
+  }).join(', '))).join('; ') + ' <small>(models per precision; name@precision: ran coarser than asked, a work cap; the oracle runs at the digits asked of it)</small>';
 }
 
 /** One line per external solver: answered, refused (grouped reasons), faulted. */
@@ -138,8 +138,8 @@ export function evidenceRows(reports: readonly ModelReport[], solverId: string, 
 function evidenceCells(e: EvidenceRow): string[] {
   const m = e.method;
   const head = [esc(e.model), esc(e.state)];
-  if (m.status === 'refused') return [...head, `<i>refused</i>: ${esc(m.reason)}`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
-  if (m.status === 'fault') return [...head, `<b>fault (${esc(m.fault)})</b>: ${esc(m.reason)}`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
+  if (m.status === 'refused') return [...head, `<span class="why"><i>refused</i>: ${esc(m.reason)}</span>`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
+  if (m.status === 'fault') return [...head, `<span class="why"><b>fault (${esc(m.fault)})</b>: ${esc(m.reason)}</span>`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
   const value = esc(formatValue(m.values[e.index] ?? NaN));
   const bound = `${esc(formatError(m.errorBound))}${m.boundAssumed ? ' <span class="assumed">assumed</span>' : ''}`;
   const ref = e.reference ? `${esc(formatValue(e.reference.value))} <small>(${esc(e.reference.label)}, ± ${esc(formatError(e.reference.bound))})</small>` : 'no independent reference';
