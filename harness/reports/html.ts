@@ -120,7 +120,8 @@ h1{margin-bottom:.2em} .verdict{font-size:1.6em;font-weight:bold;padding:.4em .8
 .caution{border-left:4px solid #c90;background:#fff8e6;padding:.6em 1em}
 table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #ccc;padding:.2em .6em;text-align:right}td:first-child,th:first-child{text-align:left}
 .plots{display:flex;flex-wrap:wrap;gap:1em}.assumed{background:#fde8b0;padding:0 .3em;border-radius:3px;font-size:.85em}
-.ok{color:#174d0c}.bad{color:#b00;font-weight:bold}table.identity td{text-align:left}td small{color:#666}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
+.ok{color:#174d0c}.bad{color:#b00;font-weight:bold}table.identity td,table.identity th{text-align:left}td small{color:#666}
+table.evidence{font-size:.88em}table.evidence td{white-space:nowrap}.why{white-space:normal;display:block;text-align:left}figure{margin:0}code,pre{background:#f4f4f4}pre{padding:.5em;overflow:auto;max-height:20em}
 </style></head><body>
 <h1>crossbound qualification report</h1>
 <p><span class="verdict ${verdict}">${verdict}</span> &nbsp; ${esc(headline)}</p>

@@ -8,9 +8,17 @@ export function table(header: readonly string[], rows: readonly (readonly string
   return htmlTable(header.map(esc), rows.map((r) => r.map(esc)), cls);
 }
 
-/** A table of cells that are HTML already (the caller escaped every text in them). */
-export function htmlTable(header: readonly string[], rows: readonly (readonly string[])[], cls?: string): string {
-  const head = `<thead><tr>${header.map((h) => `<th>${h}</th>`).join('')}</tr></thead>`;
-  const body = `<tbody>${rows.map((r) => `<tr>${r.map((c) => `<td>${c}</td>`).join('')}</tr>`).join('')}</tbody>`;
+/** A cell that spans several columns. */
+export interface Span {
+  readonly html: string;
+  readonly span: number;
+}
+
+const cell = (c: string | Span): string => (typeof c === 'string' ? `<td>${c}</td>` : `<td colspan="${c.span}">${c.html}</td>`);
+
+/** A table of cells that are HTML already (the caller escaped every text in them); no header row when `header` is empty. */
+export function htmlTable(header: readonly string[], rows: readonly (readonly (string | Span)[])[], cls?: string): string {
+  const head = header.length > 0 ? `<thead><tr>${header.map((h) => `<th>${h}</th>`).join('')}</tr></thead>` : '';
+  const body = `<tbody>${rows.map((r) => `<tr>${r.map(cell).join('')}</tr>`).join('')}</tbody>`;
   return `<table${cls ? ` class="${cls}"` : ''}>${head}${body}</table>`;
 }

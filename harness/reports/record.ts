@@ -11,7 +11,7 @@ import { compareAnswers, type Comparison } from '../compare/index.js';
 import { coverageLine, solverCoverage } from '../check/coverage.js';
 import { shownLabel, type CheckResult, type MethodResult, type ModelReport } from '../check/types.js';
 import { formatError, formatPrecision, formatRatio, formatSeconds, formatValue } from '../numbers.js';
-import { esc, htmlTable } from './htmlParts.js';
+import { esc, htmlTable, type Span } from './htmlParts.js';
 import type { RunIdentity } from './identity.js';
 
 const code = (s: string): string => `<code>${esc(s)}</code>`;
@@ -37,7 +37,7 @@ export function identitySection(id: RunIdentity): string {
         esc(s.methods.join(', ') || '-'), esc(s.versions.join(', ') || 'none reported'),
         esc(Object.entries(s.params).map(([k, v]) => `${k} = ${v}`).join(', ') || '-'),
       ]), 'identity');
-  return `<section id="identity"><h2>What was tested</h2>${htmlTable(['', ''], rows.map(([k, v]) => [esc(k), v]), 'identity')}
+  return `<section id="identity"><h2>What was tested</h2>${htmlTable([], rows.map(([k, v]) => [esc(k), v]), 'identity')}
 <h3>Solvers under test</h3>${solvers}</section>`;
 }
 
@@ -47,7 +47,7 @@ function ranAtText(id: RunIdentity): string {
     if (r.method === 'oracle') return `oracle at ${Math.round(-Math.log10(a.precision))} digits (${a.models})`;
     const name = a.precision === id.precision ? r.method : `${r.method}@${formatPrecision(a.precision)}`;
     return `${name} (${a.models})`;
-  }).join(', '))).join('; <br>') + ' <small>(models per precision; name@precision: ran coarser than asked, a work cap; the oracle runs at the digits asked of it)</small>';
+  }).join(', '))).join('; ') + ' <small>(models per precision; name@precision: ran coarser than asked, a work cap; the oracle runs at the digits asked of it)</small>';
 }
 
 /** One line per external solver: answered, refused (grouped reasons), faulted. */
@@ -135,23 +135,24 @@ export function evidenceRows(reports: readonly ModelReport[], solverId: string, 
   return rows;
 }
 
-function evidenceCells(e: EvidenceRow): string[] {
+function evidenceCells(e: EvidenceRow): (string | Span)[] {
   const m = e.method;
   const head = [esc(e.model), esc(e.state)];
-  if (m.status === 'refused') return [...head, `<i>refused</i>: ${esc(m.reason)}`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
-  if (m.status === 'fault') return [...head, `<b>fault (${esc(m.fault)})</b>: ${esc(m.reason)}`, '-', '-', '-', '-', '-', esc(e.checks), esc(formatSeconds(m.seconds))];
+  const tail = [esc(e.checks), esc(formatSeconds(m.seconds))];
+  if (m.status === 'refused') return [...head, { html: `<span class="why"><i>refused</i>: ${esc(m.reason)}</span>`, span: 6 }, ...tail];
+  if (m.status === 'fault') return [...head, { html: `<span class="why"><b>fault (${esc(m.fault)})</b>: ${esc(m.reason)}</span>`, span: 6 }, ...tail];
   const value = esc(formatValue(m.values[e.index] ?? NaN));
   const bound = `${esc(formatError(m.errorBound))}${m.boundAssumed ? ' <span class="assumed">assumed</span>' : ''}`;
   const ref = e.reference ? `${esc(formatValue(e.reference.value))} <small>(${esc(e.reference.label)}, ± ${esc(formatError(e.reference.bound))})</small>` : 'no independent reference';
   const c = e.comparison;
   const ratio = c ? `<span class="${c.agree ? 'ok' : 'bad'}">${esc(formatRatio(c.ratio))}</span>` : '-';
-  return [...head, value, ref, c ? esc(formatError(c.difference)) : '-', bound, c ? esc(formatError(c.allowed)) : '-', ratio, esc(e.checks), esc(formatSeconds(m.seconds))];
+  return [...head, value, ref, c ? esc(formatError(c.difference)) : '-', bound, c ? esc(formatError(c.allowed)) : '-', ratio, ...tail];
 }
 
 /** Per solver under test, a table of its evidence per model. */
 export function evidenceSection(reports: readonly ModelReport[], id: RunIdentity, cache = new Map<string, Model | null>()): string {
   if (id.solver_identity.length === 0) return '';
-  const header = ['model', 'state', 'solver value', 'best reference', '|Δ|', 'solver bound', 'allowed', '|Δ|/allowed', 'checks passed / failed / skipped', 'solver time'];
+  const header = ['model', 'state', 'solver value', 'best reference', '|Δ|', 'solver bound', 'allowed', '|Δ| / allowed', 'checks passed / failed / skipped', 'solver time'];
   const parts = id.solver_identity.map((s) => {
     const rows = evidenceRows(reports, s.id, cache);
     return `<section class="evidence" data-solver="${esc(s.id)}"><h3>${esc(s.id)}</h3><p>Template: <code class="template">${esc(s.template)}</code></p>` +
