@@ -39,7 +39,26 @@ export interface SolvedMethod extends MethodBase {
   readonly scheduler?: { choices: Record<string, { from: number; action: string }[]> };
   /** The solver gave no error_bound: `errorBound` is the user's --default-bound, not the solver's claim. */
   readonly boundAssumed?: true;
+  /** What the a-posteriori certificate of the method's dense solution gave, when it had one (./certified.ts). */
+  readonly certificate?: Certification;
 }
+
+/**
+ * The a-posteriori certificate of a dense solution (the method's own steps, the k-step scheme's
+ * pieces, an external solver's `trajectory`): an enclosure of v(T) in every state, or why no
+ * certificate was made (a work cap, a bound that is not finite).
+ */
+export type Certification =
+  | {
+      readonly status: 'certified';
+      readonly source: 'steps' | 'pieces' | 'trajectory';
+      readonly steps: number;
+      /** f(T), the dense solution's end, per state; f_s − below ≤ v_s(T) ≤ f_s + above. */
+      readonly center: number[];
+      readonly below: number;
+      readonly above: number;
+    }
+  | { readonly status: 'not-certified'; readonly source: 'steps' | 'pieces' | 'trajectory'; readonly reason: string };
 
 export interface RefusedMethod extends MethodBase {
   readonly status: 'refused';
@@ -57,7 +76,7 @@ export interface FaultMethod extends MethodBase {
 export type MethodResult = SolvedMethod | RefusedMethod | FaultMethod;
 
 export type CheckKind =
-  | 'agree' | 'range' | 'expect' | 'fault' | 'monotone-in-T' | 'dominance' | 'strategy-value' | 'metamorphic';
+  | 'agree' | 'range' | 'expect' | 'fault' | 'monotone-in-T' | 'dominance' | 'strategy-value' | 'metamorphic' | 'certified';
 
 export interface CheckResult {
   /** e.g. 'agree kstep:3 ~ oracle', 'range euler@1e-4', 'expect oracle', 'fault solver:x#1' (for people). */
@@ -65,6 +84,10 @@ export interface CheckResult {
   readonly kind: CheckKind;
   /** Ids (labels) of the methods the check involves (for programs; never parse `name`). */
   readonly methods: readonly string[];
+  /**
+   * `skipped` also stands for a check that ran and gave no evidence either way: a `certified` check
+   * whose certificate is looser than the claim ("not confirmed"); it is never counted as passed.
+   */
   readonly status: 'passed' | 'failed' | 'skipped';
   /**
    * The check compared answers of two independent families, or an answer with a reference (an
@@ -77,6 +100,8 @@ export interface CheckResult {
   readonly ratio?: number;
   /** One command that reproduces a failure. */
   readonly reproduce?: string;
+  /** `certified` checks: the certified bound X on |value − true|, the method's claim, and the outcome. */
+  readonly certified?: { readonly bound: number; readonly claim: number; readonly outcome: 'confirmed' | 'not-confirmed' | 'refuted' };
 }
 
 export interface ModelReport {

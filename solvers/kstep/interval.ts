@@ -63,6 +63,11 @@ export interface KstepWork {
   /** Largest ∫ over the interval of what a tie decision can lose, over states and levels (see dominant). */
   tieLoss: number;
   maxPieces: number;
+  /**
+   * When set (a caller that certifies the dense solution), runInterval stores each state's level-k
+   * function on [0, len] here: nothing else reads it, and nothing is stored when it is unset.
+   */
+  levelK?: Piecewise[];
   /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
    *  a-priori bound e^{2λ·len}, see ./bound.ts). */
   coefNorm: number;
@@ -191,6 +196,7 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
   for (let i = 0; i < n; i++) w.coefNorm = Math.max(w.coefNorm, absSum(f.coef, i * PS, j, len));
   w.act[s] = -1;
   if (j === k) {
+    if (w.levelK) w.levelK[s] = f;
     if (nA > 1) {
       const lenOf = new Float64Array(nA);
       for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
@@ -293,6 +299,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
         if (last) out[s] = x[s]!;
+        if (last && w.levelK) w.levelK[s] = single(x, s, 0, k + 1, 0, len);
         continue;
       }
       const a0 = actionStart[s]!;
@@ -328,6 +335,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         v = xs + v * len;
         out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
         if (nA > 1) w.dec[s] = a0 + best;
+        if (w.levelK) w.levelK[s] = levelKPiece(R, o, k, xs, len);
       } else if (dirty) {
         const pi = nPend.n++;
         w.pendS[pi] = s;
@@ -349,4 +357,12 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     w.pwPrev = w.pwCur;
   }
   return true;
+}
+
+/** The level-k polynomial x + Σ_i r_i τ^{i+1}/(i+1) of a single-piece state (for KstepWork.levelK). */
+function levelKPiece(R: Float64Array, o: number, k: number, xs: number, len: number): Piecewise {
+  const c = new Float64Array(k + 1);
+  c[0] = xs;
+  for (let i = 0; i < k; i++) c[i + 1] = R[o + i]! / (i + 1);
+  return single(c, 0, k, k + 1, 0, len);
 }
