@@ -38,7 +38,7 @@
  * handed out, which checks the solver's bookkeeping, not the certificate).
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
-import { Certifier, type Certificate } from '../../solvers/defect/certificate.js';
+import { Certifier, type Certificate, type DenseStep } from '../../solvers/defect/certificate.js';
 import { certifyTrajectory } from '../../solvers/defect/trajectory.js';
 import type { DenseSink } from '../../solvers/shared/dense.js';
 import { UNIT_ROUNDOFF } from '../../solvers/piecewise/poly.js';
@@ -47,8 +47,11 @@ import { compareAtMost, formatRatio, type Answer } from '../compare/index.js';
 import { failed, skipped, type CheckHead } from './make.js';
 import { shownLabel, type Certification, type CheckResult, type SolvedMethod } from './types.js';
 
-/** Largest work, steps × ((K + 1)(states + transitions) + actions (K + 1)²), spent certifying one dense solution. */
-export const CHECK_CERTIFY_MAX_WORK = 5e7;
+/**
+ * Largest work, steps × ((K + 1)(states + transitions) + actions (K + 1)²), spent certifying one dense
+ * solution (about a second on one core); a longer one is not certified (the check is skipped, saying so).
+ */
+export const CHECK_CERTIFY_MAX_WORK = 1e6;
 
 type Source = 'steps' | 'pieces' | 'trajectory';
 
@@ -62,41 +65,50 @@ export function enclosureOf(m: CompiledModel, cert: Certificate, flushBound: num
   return { status: 'certified', source, steps, center: [...cert.values], below, above };
 }
 
-/** A DenseSink that certifies the steps as they come, within CHECK_CERTIFY_MAX_WORK. */
+/**
+ * A DenseSink that keeps the steps (at most CHECK_CERTIFY_MAX_WORK numbers, so memory stays bounded)
+ * and certifies them when asked: a solution longer than the cap, or an attempt the method gave up
+ * (it is retried at a coarser precision, which calls begin() again), costs no certification.
+ */
 export class CertifySink implements DenseSink {
-  private certifier: Certifier | undefined;
   private m: CompiledModel | undefined;
+  private degree = 0;
   private flush = 0;
   private work = 0;
   private perStep = 0;
+  private steps: DenseStep[] = [];
   private over = false;
 
   constructor(private readonly source: Source, private readonly maxWork = CHECK_CERTIFY_MAX_WORK) {}
 
   begin(m: CompiledModel, degree: number, flushBound: number): void {
     this.m = m;
-    this.certifier = new Certifier(m, degree);
+    this.degree = degree;
     this.flush = flushBound;
     this.work = 0;
+    this.steps = [];
     this.over = false;
     this.perStep = (degree + 1) * (m.nStates + m.nTransitions) + m.nActions * (degree + 1) ** 2;
   }
 
   step(h: number, coef: Float64Array): void {
-    if (this.over || !this.certifier) return;
+    if (this.over) return;
     this.work += this.perStep;
     if (this.work > this.maxWork) {
       this.over = true;
+      this.steps = [];
       return;
     }
-    this.certifier.add({ h, coef });
+    this.steps.push({ h, coef: Float64Array.from(coef) });
   }
 
   /** The certification, or undefined when the method handed out no dense solution (nothing moves). */
   result(): Certification | undefined {
-    if (!this.certifier || !this.m) return undefined;
+    if (!this.m) return undefined;
     if (this.over) return { status: 'not-certified', source: this.source, reason: `the dense solution is longer than the certificate's work cap ${this.maxWork}` };
-    return enclosureOf(this.m, this.certifier.finish(), this.flush, this.source, this.certifier.steps);
+    const c = new Certifier(this.m, this.degree);
+    for (const st of this.steps) c.add(st);
+    return enclosureOf(this.m, c.finish(), this.flush, this.source, this.steps.length);
   }
 }
 

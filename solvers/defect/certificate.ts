@@ -110,7 +110,14 @@ export class StepDefect {
     const { m, S, K, lo, hi, bestLo, bestHi } = this;
     this.P.fill(0);
     this.M.fill(0);
-    const pos = (x: Float64Array, sign: number): number => x.reduce((acc, v) => acc + Math.max(sign * v, 0), 0);
+    const pos = (x: Float64Array, sign: number): number => {
+      let acc = 0;
+      for (let i = 0; i <= K; i++) {
+        const v = sign * x[i]!;
+        if (v > 0) acc += v;
+      }
+      return acc;
+    };
     for (let s = 0; s < S; s++) {
       const a0 = m.actionStart[s]!;
       const a1 = m.actionStart[s + 1]!;
@@ -203,6 +210,7 @@ export class Certifier {
   private jumpDown = 0;
   private total = 0;
   private readonly still: Uint8Array;
+  private spare: Float64Array;
   /** Steps added so far. */
   steps = 0;
 
@@ -219,6 +227,7 @@ export class Certifier {
     this.prev = new Float64Array(S);
     for (let s = 0; s < S; s++) this.prev[s] = m.goal[s]!;
     this.still = new Uint8Array(S);
+    this.spare = new Float64Array(S);
   }
 
   add(st: DenseStep): void {
@@ -244,8 +253,9 @@ export class Certifier {
       for (let j = 1; j <= K && c; j++) if (st.coef[j * S + s] !== 0) c = 0;
       still[s] = c;
     }
-    const next = new Float64Array(S);
+    const next = this.spare;
     this.prevErr = evaluateEnd(st.coef, S, K, st.h, next, still);
+    this.spare = this.prev;
     this.prev = next;
     this.total += st.h;
     this.steps++;

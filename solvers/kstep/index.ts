@@ -112,7 +112,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   // --- the intervals -------------------------------------------------------------------------
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
   if (opts.dense) {
-    w.levelK = new Array(S);
+    w.levelK = { coef: new Float64Array((k + 1) * S), pieces: new Map() };
     opts.dense.begin(m, k, scaled.flushBound);
   }
   let x = Float64Array.from(x0);
@@ -138,7 +138,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
       tieLoss += w.tieLoss;
       intervals++;
       rec.record(w, t0);
-      if (opts.dense) emitPieces(opts.dense, len, w.levelK!, k);
+      if (opts.dense) emitPieces(opts.dense, len, w.levelK!.coef, w.levelK!.pieces, k);
       const tmp = x;
       x = next;
       next = tmp;

@@ -26,27 +26,36 @@ export interface DenseSink {
 }
 
 /**
- * One interval of length len, with polys[s] the level-k function of state s on [0, len] (degree ≤ K,
- * coefficients in the interval's own variable τ, stride ≥ K + 1), as steps into `sink`.
+ * One interval of length len as steps into `sink`: c_j(s) at coef[j·S + s] for the states with one
+ * polynomial on [0, len] (degree ≤ K), and pieces.get(s) for the states with a piecewise function on
+ * [0, len] (coefficients in the interval's own variable τ, stride ≥ K + 1).
  */
-export function emitPieces(sink: DenseSink, len: number, polys: readonly Piecewise[], K: number): void {
-  const S = polys.length;
-  const multi = polys.filter((p) => pieceCount(p) > 1).map((p) => p.breaks);
+export function emitPieces(sink: DenseSink, len: number, coef: Float64Array, pieces: ReadonlyMap<number, Piecewise>, K: number): void {
+  if (pieces.size === 0) {
+    sink.step(len, coef);
+    return;
+  }
+  const S = coef.length / (K + 1);
+  const multi = [...pieces.values()].filter((p) => pieceCount(p) > 1).map((p) => p.breaks);
   const cuts = multi.length === 0 ? Float64Array.of(0, len) : mergeBreaks([Float64Array.of(0, len), ...multi]);
-  const coef = new Float64Array((K + 1) * S);
+  const out = new Float64Array(coef.length);
   const q = new Float64Array(K + 1);
   for (let c = 0; c + 1 < cuts.length; c++) {
     const b = cuts[c]!;
     const h = cuts[c + 1]! - b;
     const mid = b + 0.5 * h;
     for (let s = 0; s < S; s++) {
-      const p = polys[s]!;
-      const off = pieceAt(p, mid) * p.stride;
-      for (let j = 0; j <= K; j++) q[j] = j < p.stride ? p.coef[off + j]! : 0;
+      const p = pieces.get(s);
+      if (p) {
+        const off = pieceAt(p, mid) * p.stride;
+        for (let j = 0; j <= K; j++) q[j] = j < p.stride ? p.coef[off + j]! : 0;
+      } else {
+        for (let j = 0; j <= K; j++) q[j] = coef[j * S + s]!;
+      }
       // Taylor shift to the cut's start: q(τ) ← q(b + τ), by repeated synthetic division.
       if (b !== 0) for (let i = 0; i < K; i++) for (let j = K - 1; j >= i; j--) q[j] += b * q[j + 1]!;
-      for (let j = 0; j <= K; j++) coef[j * S + s] = q[j]!;
+      for (let j = 0; j <= K; j++) out[j * S + s] = q[j]!;
     }
-    sink.step(h, coef);
+    sink.step(h, out);
   }
 }
