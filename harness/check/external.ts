@@ -9,6 +9,7 @@ import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
 import { checkPlaceholders, splitTemplate, TemplateError } from '../external/template.js';
+import { certifyExternalTrajectory } from './certified.js';
 import { solvedResult } from './methods.js';
 import type { MethodResult } from './types.js';
 
@@ -52,7 +53,10 @@ export async function runExternalMethod(
     const reason = tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail;
     return { ...id, status: 'fault', fault: out.fault, reason, seconds: out.seconds };
   }
-  const solved = solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+  const plain = solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds);
+  // A returned trajectory is certified here (./certified.ts); only the enclosure travels on.
+  const tr = out.solved.trajectory;
+  const solved = tr ? { ...plain, certificate: certifyExternalTrajectory(compiled, tr) } : plain;
   return out.boundAssumed ? { ...solved, boundAssumed: true } : solved;
 }
 
