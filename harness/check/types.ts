@@ -117,8 +117,11 @@ export interface ModelReport {
   readonly initial: number;
   readonly methods: MethodResult[];
   readonly checks: CheckResult[];
-  /** Per method: actual error against the oracle (beyond its bound) / the method's bound. */
-  readonly audit: { method: string; ratio: number }[];
+  /**
+   * Per method: actual error against the oracle (beyond its bound) / the method's bound; the bound, and
+   * the a-posteriori certified bound of its dense solution when there is one.
+   */
+  readonly audit: { method: string; ratio: number; bound?: number; certified?: number }[];
   readonly warnings: string[];
   /** Set when the file could not be loaded: the model is then a failure with this message. */
   readonly error?: string;

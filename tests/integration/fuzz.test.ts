@@ -11,8 +11,8 @@ describe('crossbound fuzz', () => {
   it('finds no disagreement among the correct methods (seed 5, 40 models)', () => {
     const r = crossbound(['fuzz', '--runs', '40', '--seed', '5', '--max-states', '8', '--no-save'], 1_800_000);
     expect(r.stdout).toMatch(/40 random models \(seed 5, up to 8 states\), no disagreement/);
-    const drawn = /families drawn: (\d+) random, (\d+) switching, (\d+) adversarial/.exec(r.stdout);
-    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3])).toBe(40);
+    const drawn = /families drawn: (\d+) random, (\d+) switching, (\d+) adversarial \(near-ties\), (\d+) dip/.exec(r.stdout);
+    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3]) + Number(drawn[4])).toBe(40);
     expect(Number(drawn?.[3])).toBeGreaterThan(3);
     expect(r.code).toBe(0);
   }, 1_800_000);

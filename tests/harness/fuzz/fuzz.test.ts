@@ -28,7 +28,7 @@ describe('fuzz catches variant:loose-tie', () => {
     const f = s.failure!;
     expect(f.failed.some((c) => c.name === 'agree variant:loose-tie ~ kstep:4')).toBe(true);
     expect(f.model.name).toMatch(/^adversarial-tie[0-3]$/);
-    expect(s.drawn.random + s.drawn.switching + s.drawn.adversarial).toBe(s.runs);
+    expect(s.drawn.random + s.drawn.switching + s.drawn.adversarial + s.drawn.dip).toBe(s.runs);
     expect(s.drawn.adversarial).toBeGreaterThan(0);
   }, 600_000);
 });
