@@ -7,8 +7,8 @@
  * The gadget: state s, owned by the max or the min player, chooses between `a`, to x, which reaches
  * the goal at rate α (exponential: F_x(t) = 1 − e^{−αt}), and `b`, to y1 with probability β and to a
  * sink otherwise, where y1 → y2 → goal at rate γ each (Erlang-2: F_y(t) = 1 − e^{−γt}(1 + γt)); both
- * actions have exit rate 1·r. With γ > α the Erlang-2 time overtakes the exponential one and loses again
- * to it for β < 1: the advantage F_x − βF_y (per unit rate) is positive, then negative, then positive
+ * actions have exit rate r. With γ ≥ 2α the Erlang-2 time overtakes the exponential one (so that
+ * β* ≤ 0.96, well below 1) and loses again to it for β < 1: the advantage F_x − βF_y (per unit rate) is positive, then negative, then positive
  * for β just above β* = min_t F_x(t)/F_y(t) (the distribution functions are textbook facts of the
  * exponential and Erlang distributions, common practice, no source). The dip's depth is about
  * (β − β*)·F_y and its width grows like √(β − β*); β = β*(1 + ε) with ε from 10^-4 to 3·10^-2.
@@ -20,13 +20,13 @@ import type { ModelObject } from '../format/build.js';
 import type { GoalMode } from '../format/types.js';
 
 export interface DipDraw {
-  /** α = alpha/100 (0.2 … 5), γ = α·ratio/100 (ratio 130 … 400), the choice's rate r = rate/100 (0.2 … 5). */
+  /** α = alpha/100 (0.2 … 5), γ = α·ratio/100 (ratio 200 … 400), the choice's rate r = rate/100 (0.2 … 5). */
   readonly alpha: number;
   readonly ratio: number;
   readonly rate: number;
   /** ε = 10^(−epsExp/10): epsExp 15 … 40 (ε from 3·10^-2 down to 10^-4). */
   readonly epsExp: number;
-  /** The time bound: the dip's time × (1.2 + time/100), time 0 … 200. */
+  /** The time bound: the end of the dip × (1.1 + time/100), time 0 … 200. */
   readonly time: number;
   readonly owner: 'max' | 'min';
   readonly mode: GoalMode;
@@ -59,7 +59,7 @@ export function criticalMix(alpha: number, gamma: number): { beta: number; t: nu
 export function arbDipDraw(): fc.Arbitrary<DipDraw> {
   return fc.record({
     alpha: fc.integer({ min: 20, max: 500 }),
-    ratio: fc.integer({ min: 130, max: 400 }),
+    ratio: fc.integer({ min: 200, max: 400 }),
     rate: fc.integer({ min: 20, max: 500 }),
     epsExp: fc.integer({ min: 15, max: 40 }),
     time: fc.integer({ min: 0, max: 200 }),
@@ -74,7 +74,11 @@ export function buildDip(d: DipDraw): ModelObject {
   const r = d.rate / 100;
   const { beta: crit, t } = criticalMix(alpha, gamma);
   const eps = 10 ** (-d.epsExp / 10);
-  const beta = Math.min(0.999999, Number((crit * (1 + eps)).toPrecision(9)));
+  const beta = Number((crit * (1 + eps)).toPrecision(9));
+  // The end of the dip: the first time after t where the advantage is positive again.
+  const adv = (u: number): number => -Math.expm1(-alpha * u) - beta * -(Math.expm1(-gamma * u) + gamma * u * Math.exp(-gamma * u));
+  let end = t;
+  while (adv(end) <= 0 && end < 200 / alpha) end += 0.01 / alpha;
   const rb = Number((r * beta).toPrecision(9));
   const rz = Number((r - rb).toPrecision(9));
   return {
@@ -82,7 +86,7 @@ export function buildDip(d: DipDraw): ModelObject {
     name: 'dip',
     description: `Near-tangent crossing: exponential (rate ${alpha}) against a ${beta} share of Erlang-2 (rate ${gamma}); ` +
       `the critical share is about ${crit.toPrecision(9)} at time left ${t.toPrecision(4)}, ε = ${eps.toPrecision(3)}.`,
-    time_bound: Number((t * (1.2 + d.time / 100)).toPrecision(6)),
+    time_bound: Number((end * (1.1 + d.time / 100)).toPrecision(6)),
     goal: ['goal'],
     goal_mode: d.mode,
     initial: 's',
