@@ -21,7 +21,8 @@
  *  - refuted (`failed`): the enclosure and the claimed interval of this method, or of any other answer,
  *    are disjoint in some state by more than the comparator's slack (harness/compare). Both are
  *    rigorous claims about the same v_s(T), so one of them is false: a genuine failure of the methods
- *    named (or of the certificate's code). Never a failure for looseness alone.
+ *    named (the other answer may be the wrong one; or the certificate's code). The slack goes to the
+ *    claims, so rounding of the comparison never makes a failure up; looseness alone never fails.
  *  - not confirmed (`skipped`, detail "not confirmed: …"): X > eb and nothing disjoint. The
  *    certificate is looser than the claim: it neither proves nor refutes it. It gave no evidence, so it
  *    is not passed; nothing was shown false, so it is not failed.
@@ -35,7 +36,13 @@
  * never makes a model `pass` by itself (its agreement checks must still compare two families), while a
  * refuted one makes the model `fail` like any failed check. For the `defect` method the certificate is
  * even the same code as the method's own bound (it re-derives the bound from the steps the solver
- * handed out, which checks the solver's bookkeeping, not the certificate).
+ * handed out, which checks the solver's bookkeeping, not the certificate). For the k-step scheme and
+ * external solvers it is the defect family's code judging another family's f: that is why a
+ * refutation against another family's answer is a failure, not why a confirmation would be a pass.
+ *
+ * Cost: the steps are kept (at most CHECK_CERTIFY_MAX_WORK numbers) and certified once the method has
+ * answered; a longer solution (kstep:1 and kstep:2 at tight precisions, large models) is not certified
+ * and says so. A planted variant is never certified (it has no sink), only its references are.
  */
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import { Certifier, type Certificate, type DenseStep } from '../../solvers/defect/certificate.js';
