@@ -67,11 +67,20 @@ export function formatCheckReport(reports: readonly ModelReport[], opts: TableOp
     out.push('', `${unchecked.length} unchecked model(s): nothing independent was compared${opts.allowUnchecked ? ' (allowed by --allow-unchecked)' : ''}:`);
     for (const r of unchecked) out.push(`  ${r.model} (${r.file}): ${uncheckedReason(r)}`);
   }
-  const skipped = reports.flatMap((r) => r.checks.filter((c) => c.status === 'skipped').map((c) => ({ r, c })));
-  if (skipped.length > 0) {
-    out.push('', `${skipped.length} check(s) skipped (could not run, or gave no evidence either way; not counted as passed):`);
+  const all = reports.flatMap((r) => r.checks.filter((c) => c.status === 'skipped').map((c) => ({ r, c })));
+  if (all.length > 0) {
+    // Certificates not made for length alone are many and alike: one line for all of them.
+    const capped = all.filter(({ c }) => c.kind === 'certified' && / work cap /.test(c.detail));
+    const skipped = all.filter((x) => !capped.includes(x));
+    out.push('', `${all.length} check(s) skipped (could not run, or gave no evidence either way; not counted as passed):`);
     for (const { r, c } of skipped.slice(0, 20)) out.push(`  ${r.model} — ${c.name}: ${c.detail}`);
     if (skipped.length > 20) out.push(`  … and ${skipped.length - 20} more (see --json)`);
+    if (capped.length > 0) {
+      const by = new Map<string, number>();
+      for (const { c } of capped) by.set(c.methods[0]!, (by.get(c.methods[0]!) ?? 0) + 1);
+      out.push(`  ${capped.length} certified check(s): the dense solution is longer than the certificate's work cap ` +
+        `(${[...by].map(([m, n]) => `${m} on ${n} model(s)`).join(', ')})`);
+    }
   }
   const failures = reports.flatMap((r) => r.checks.filter((c) => c.status === 'failed').map((c) => ({ r, c })));
   if (failures.length > 0) {
