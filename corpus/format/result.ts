@@ -23,6 +23,8 @@ export interface Solved {
   /** The strategy the solver found, if any. */
   readonly scheduler?: Scheduler;
   readonly stats: Readonly<Record<string, number>>;
+  /** Optional values over time (an external result's `trajectory`): values[i][s] at time left timeLeft[i], from 0 to T. */
+  readonly trajectory?: { readonly timeLeft: Float64Array; readonly values: readonly Float64Array[] };
 }
 
 /**

@@ -7,6 +7,7 @@ import { compile } from '../../corpus/format/compile.js';
 import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { compareAnswers, compareRange, compareWithReference } from '../compare/index.js';
+import { certifiedCheck } from './certified.js';
 import { runExternalMethod, solverLabel, type DefaultBound } from './external.js';
 import { failed, ran } from './make.js';
 import { CHECK_DEFECT_MAX_WORK, CHECK_EULER_MAX_WORK, CHECK_KSTEP_MAX_INTERVALS, CHECK_KSTEP_WORK, INTERNAL_METHODS, runInternal } from './methods.js';
@@ -47,7 +48,7 @@ export async function checkModel(file: string, model: Model, warnings: string[],
   };
   const methods: MethodResult[] = [];
   const precisionOf = (label: string): number => opts.methodPrecision?.[label] ?? opts.precision;
-  for (const label of opts.methods ?? INTERNAL_METHODS) methods.push(runInternal(label, { ...ctx, precision: precisionOf(label) }));
+  for (const label of opts.methods ?? INTERNAL_METHODS) methods.push(runInternal(label, { ...ctx, precision: precisionOf(label), certify: true }));
   for (const [i, template] of (opts.solvers ?? []).entries()) {
     methods.push(await runExternalMethod(template, i, model, compiled, opts));
   }
@@ -104,6 +105,10 @@ function judge(model: Model, methods: readonly MethodResult[], repro: Repro): Ch
     checks.push(failed(head, `${m.fault}: ${m.reason}`));
   }
   for (const m of solved) checks.push(rangeCheck(names, m));
+  for (const m of solved) {
+    const c = certifiedCheck(names, m, solved);
+    if (c) checks.push(c);
+  }
   for (let i = 0; i < solved.length; i++) for (let j = i + 1; j < solved.length; j++) checks.push(agreeCheck(names, solved[i]!, solved[j]!));
   if (model.expect) for (const m of solved) checks.push(expectCheck(names, model.expect, m));
   return checks.map(withRepro);

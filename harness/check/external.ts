@@ -9,6 +9,7 @@ import { exportJson } from '../../corpus/format/export.js';
 import type { Model } from '../../corpus/format/types.js';
 import { runExternal } from '../external/run.js';
 import { checkPlaceholders, splitTemplate, TemplateError } from '../external/template.js';
+import { certifyExternalTrajectory } from './certified.js';
 import { solvedResult } from './methods.js';
 import type { MethodResult } from './types.js';
 
@@ -53,7 +54,10 @@ export async function runExternalMethod(
     return { ...id, status: 'fault', fault: out.fault, reason, seconds: out.seconds };
   }
   const reported = { ...out.reported, ...(Object.keys(out.solved.params).length > 0 ? { params: { ...out.solved.params } } : {}) };
-  const solved = { ...solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds), reported };
+  const plain = { ...solvedResult(id, out.solved, { requested: opts.precision, precision: opts.precision }, out.seconds), reported };
+  // A returned trajectory is certified here (./certified.ts); only the enclosure travels on.
+  const tr = out.solved.trajectory;
+  const solved = tr ? { ...plain, certificate: certifyExternalTrajectory(compiled, tr) } : plain;
   return out.boundAssumed ? { ...solved, boundAssumed: true } : solved;
 }
 

@@ -17,6 +17,8 @@ import { solveDefect } from '../../solvers/defect/index.js';
 import { solveEuler } from '../../solvers/euler/index.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
+import type { DenseSink } from '../../solvers/shared/dense.js';
+import { CertifySink } from './certified.js';
 import { plantedByName, plantedNames } from './planted.js';
 import type { Family, MethodResult, SolvedMethod } from './types.js';
 
@@ -39,6 +41,8 @@ export interface MethodContext {
   readonly defectMaxWork?: number;
   /** Progress of a long run (Euler: steps; the optimal oracle: time done), for `solve` on a terminal; no effect on results. */
   readonly onProgress?: (done: number, total: number) => void;
+  /** Certify the dense solution of `kstep` and `defect` (./certified.ts); `check` asks it for the model itself only. */
+  readonly certify?: boolean;
 }
 
 export const CHECK_EULER_MAX_WORK = 3e7;
@@ -63,8 +67,9 @@ export function parseMethodLabel(label: string): { method: 'uniformization' | 'e
   throw new Error(`unknown method '${label}' (known: uniformization, euler, kstep:K, defect, oracle)`);
 }
 
-export function solveWith(label: string, ctx: MethodContext, precision: number): Outcome {
+export function solveWith(label: string, ctx: MethodContext, precision: number, dense?: DenseSink): Outcome {
   const { method, k } = parseMethodLabel(label);
+  const sink = dense ? { dense } : {};
   switch (method) {
     case 'uniformization':
       return solveUniformization(ctx.compiled, ctx.scheduler ? { precision, scheduler: ctx.scheduler } : { precision });
@@ -75,9 +80,9 @@ export function solveWith(label: string, ctx: MethodContext, precision: number):
         ...(ctx.onProgress ? { onProgress: ctx.onProgress } : {}),
       });
     case 'kstep':
-      return solveKstep(ctx.compiled, ctx.kstepMaxIntervals ? { precision, k: k!, maxIntervals: ctx.kstepMaxIntervals } : { precision, k: k! });
+      return solveKstep(ctx.compiled, { precision, k: k!, ...(ctx.kstepMaxIntervals ? { maxIntervals: ctx.kstepMaxIntervals } : {}), ...sink });
     case 'defect':
-      return solveDefect(ctx.compiled, ctx.defectMaxWork ? { precision, maxWork: ctx.defectMaxWork } : { precision });
+      return solveDefect(ctx.compiled, { precision, ...(ctx.defectMaxWork ? { maxWork: ctx.defectMaxWork } : {}), ...sink });
     case 'variant':
       return plantedByName(label.slice(8))!.solve(ctx.model, ctx.compiled, precision);
     case 'oracle':
@@ -131,7 +136,11 @@ export function familyOfInternal(label: string): Family {
  * exception from any method.
  */
 export function runInternal(label: string, ctx: MethodContext): MethodResult {
-  return runWith({ label, family: familyOfInternal(label) }, ctx, (precision) => solveWith(label, ctx, precision));
+  const family = familyOfInternal(label);
+  const sink = ctx.certify && (family === 'kstep' || family === 'defect') ? new CertifySink(family === 'kstep' ? 'pieces' : 'steps') : undefined;
+  const r = runWith({ label, family }, ctx, (precision) => solveWith(label, ctx, precision, sink));
+  const certificate = r.status === 'solved' ? sink?.result() : undefined;
+  return certificate && r.status === 'solved' ? { ...r, certificate } : r;
 }
 
 /** runInternal with the solving step given (so the rules for retries and faults can be tested on planted outcomes). */

@@ -9,7 +9,8 @@
  *    value is a certified bound on the optimum, so this catches an optimum claimed too low (max) or too
  *    high (min) even where no other solver applies;
  *  - bound audit: |v − oracle| beyond the oracle's bound, divided by the method's own bound (> 1 is a
- *    broken bound; far below 1 a loose one).
+ *    broken bound; far below 1 a loose one); beside it the a-posteriori certified bound of the method's
+ *    dense solution, when there is one (the check `certified`, ./certified.ts).
  * A check that cannot run (the transformed model refused, a scheduler too long to evaluate) is skipped
  * with its reason, never passed.
  */
@@ -19,6 +20,7 @@ import type { Model } from '../../corpus/format/types.js';
 import { modelKind } from '../../corpus/format/types.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
 import { compareAnswers, compareAtMost, type Comparison } from '../compare/index.js';
+import { certifiedBound } from './certified.js';
 import { failed, ran, skipped, type CheckHead } from './make.js';
 import { addUnreachable, duplicateAction, gameOfCtmc, renameStates, scaleRates, type Transformed } from './transform.js';
 import { shownLabel, type CheckResult, type MethodResult, type SolvedMethod } from './types.js';
@@ -127,6 +129,10 @@ export interface AuditRow {
   readonly method: string;
   /** max_s max(0, |v_s − oracle_s| − oracle bound) / method bound. */
   readonly ratio: number;
+  /** The method's own (a-priori or claimed) bound. */
+  readonly bound?: number;
+  /** The a-posteriori certified bound X on |value − true| of its dense solution, when one was certified (./certified.ts). */
+  readonly certified?: number;
 }
 
 export function audit(methods: readonly MethodResult[]): AuditRow[] {
@@ -137,6 +143,7 @@ export function audit(methods: readonly MethodResult[]): AuditRow[] {
     .map((m) => {
       let worst = 0;
       m.values.forEach((v, s) => (worst = Math.max(worst, Math.abs(v - oracle.values[s]!) - oracle.errorBound)));
-      return { method: m.label, ratio: worst / m.errorBound };
+      const cert = m.certificate?.status === 'certified' ? { certified: certifiedBound(m.values, m.certificate).bound } : {};
+      return { method: m.label, ratio: worst / m.errorBound, bound: m.errorBound, ...cert };
     });
 }

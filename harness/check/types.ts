@@ -48,7 +48,26 @@ export interface SolvedMethod extends MethodBase {
   readonly scheduler?: { choices: Record<string, { from: number; action: string }[]> };
   /** The solver gave no error_bound: `errorBound` is the user's --default-bound, not the solver's claim. */
   readonly boundAssumed?: true;
+  /** What the a-posteriori certificate of the method's dense solution gave, when it had one (./certified.ts). */
+  readonly certificate?: Certification;
 }
+
+/**
+ * The a-posteriori certificate of a dense solution (the method's own steps, the k-step scheme's
+ * pieces, an external solver's `trajectory`): an enclosure of v(T) in every state, or why no
+ * certificate was made (a work cap, a bound that is not finite).
+ */
+export type Certification =
+  | {
+      readonly status: 'certified';
+      readonly source: 'steps' | 'pieces' | 'trajectory';
+      readonly steps: number;
+      /** f(T), the dense solution's end, per state; f_s − below ≤ v_s(T) ≤ f_s + above. */
+      readonly center: number[];
+      readonly below: number;
+      readonly above: number;
+    }
+  | { readonly status: 'not-certified'; readonly source: 'steps' | 'pieces' | 'trajectory'; readonly reason: string };
 
 export interface RefusedMethod extends MethodBase {
   readonly status: 'refused';
@@ -66,7 +85,7 @@ export interface FaultMethod extends MethodBase {
 export type MethodResult = SolvedMethod | RefusedMethod | FaultMethod;
 
 export type CheckKind =
-  | 'agree' | 'range' | 'expect' | 'fault' | 'monotone-in-T' | 'dominance' | 'strategy-value' | 'metamorphic';
+  | 'agree' | 'range' | 'expect' | 'fault' | 'monotone-in-T' | 'dominance' | 'strategy-value' | 'metamorphic' | 'certified';
 
 export interface CheckResult {
   /** e.g. 'agree kstep:3 ~ oracle', 'range euler@1e-4', 'expect oracle', 'fault solver:x#1' (for people). */
@@ -74,6 +93,10 @@ export interface CheckResult {
   readonly kind: CheckKind;
   /** Ids (labels) of the methods the check involves (for programs; never parse `name`). */
   readonly methods: readonly string[];
+  /**
+   * `skipped` also stands for a check that ran and gave no evidence either way: a `certified` check
+   * whose certificate is looser than the claim ("not confirmed"); it is never counted as passed.
+   */
   readonly status: 'passed' | 'failed' | 'skipped';
   /**
    * The check compared answers of two independent families, or an answer with a reference (an
@@ -86,6 +109,8 @@ export interface CheckResult {
   readonly ratio?: number;
   /** One command that reproduces a failure. */
   readonly reproduce?: string;
+  /** `certified` checks: the certified bound X on |value − true|, the method's claim, and the outcome. */
+  readonly certified?: { readonly bound: number; readonly claim: number; readonly outcome: 'confirmed' | 'not-confirmed' | 'refuted' };
 }
 
 export interface ModelReport {
@@ -101,8 +126,11 @@ export interface ModelReport {
   readonly initial: number;
   readonly methods: MethodResult[];
   readonly checks: CheckResult[];
-  /** Per method: actual error against the oracle (beyond its bound) / the method's bound. */
-  readonly audit: { method: string; ratio: number }[];
+  /**
+   * Per method: actual error against the oracle (beyond its bound) / the method's bound; the bound, and
+   * the a-posteriori certified bound of its dense solution when there is one.
+   */
+  readonly audit: { method: string; ratio: number; bound?: number; certified?: number }[];
   readonly warnings: string[];
   /** Set when the file could not be loaded: the model is then a failure with this message. */
   readonly error?: string;

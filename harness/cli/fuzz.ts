@@ -69,7 +69,7 @@ export function registerFuzz(program: Command, setExit: SetExit): void {
       progress.finish();
       const d = summary.drawn;
       const families = `fuzz: families drawn: ${d.random} random, ${d.switching} switching, ` +
-        `${d.adversarial} adversarial (near-ties)`;
+        `${d.adversarial} adversarial (near-ties), ${d.dip} dip (near-tangent crossings)`;
       if (!summary.failure) {
         const head = `fuzz: ${summary.runs} random models (seed ${seed}, up to ${maxStates} states), no disagreement, ` +
           `in ${formatSeconds(summary.seconds)}`;

@@ -7,7 +7,8 @@
  *   'bad-format'    JSON, but not a result: not an object, `format` is not crossbound-result/1, or a
  *                   known key has the wrong type (`method` not a string, `values` not an object,
  *                   `params`, `stats`, `values_decimal`, `scheduler` malformed, `time_bound` or
- *                   `goal_mode` different from the model's when the caller gives them);
+ *                   `goal_mode` different from the model's when the caller gives them), or a
+ *                   `trajectory` that breaks its rules (see parseTrajectory);
  *   'missing-state' a state of the model has no entry in `values`;
  *   'bad-value'     a value is not a finite number (JSON has no NaN: a serialiser writes null for
  *                   it), or lies outside [0, 1] by more than VALUE_SLACK;
@@ -77,6 +78,50 @@ function parseScheduler(x: unknown): Scheduler | string {
     choices[s] = out;
   }
   return typeof x.model === 'string' ? { model: x.model, choices } : { choices };
+}
+
+/** A trajectory may hold at most this many times, and at most MAX_TRAJECTORY_NUMBERS values in all. */
+export const MAX_TRAJECTORY_TIMES = 100_000;
+export const MAX_TRAJECTORY_NUMBERS = 10_000_000;
+
+/**
+ * `trajectory`: { time_left: [0, t1, …, T], values: { s: [v_s(0), …, v_s(T)] } }. Rules: time_left is
+ * a list of at least two finite numbers, the first exactly 0, strictly increasing, the last equal to
+ * the time bound (relative 1e-12); values holds, for every state of the model, a list of finite
+ * numbers as long as time_left; at most MAX_TRAJECTORY_TIMES times and MAX_TRAJECTORY_NUMBERS values.
+ * Returns the trajectory in state order, or what is wrong, in one line.
+ */
+export function parseTrajectory(x: unknown, stateNames: readonly string[], timeBound: number | undefined): NonNullable<Solved['trajectory']> | string {
+  if (!isPlainObject(x)) return '`trajectory` is not an object';
+  const t = x.time_left;
+  if (!Array.isArray(t) || t.length < 2) return '`trajectory.time_left` is not a list of at least two times';
+  const n = t.length;
+  if (n > MAX_TRAJECTORY_TIMES) return `\`trajectory.time_left\` has ${n} times, more than the limit ${MAX_TRAJECTORY_TIMES}`;
+  if (n * stateNames.length > MAX_TRAJECTORY_NUMBERS) return `\`trajectory\` has ${n} times × ${stateNames.length} states, more than the limit of ${MAX_TRAJECTORY_NUMBERS} values`;
+  const timeLeft = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const v = t[i];
+    if (typeof v !== 'number' || !Number.isFinite(v)) return `\`trajectory.time_left[${i}]\` is ${JSON.stringify(v) ?? String(v)}, not a finite number`;
+    if (i === 0 && v !== 0) return `\`trajectory.time_left\` must start at 0 (it starts at ${v})`;
+    if (i > 0 && !(v > timeLeft[i - 1]!)) return `\`trajectory.time_left\` must increase strictly (index ${i}: ${v} after ${timeLeft[i - 1]})`;
+    timeLeft[i] = v;
+  }
+  if (timeBound === undefined) return '`trajectory` cannot be checked without the time bound';
+  if (Math.abs(timeLeft[n - 1]! - timeBound) > 1e-12 * timeBound) return `\`trajectory.time_left\` must end at the time bound ${timeBound} (it ends at ${timeLeft[n - 1]})`;
+  if (!isPlainObject(x.values)) return '`trajectory.values` is not an object';
+  const byTime = Array.from({ length: n }, () => new Float64Array(stateNames.length));
+  for (let s = 0; s < stateNames.length; s++) {
+    const name = stateNames[s]!;
+    const list = Object.hasOwn(x.values, name) ? x.values[name] : undefined;
+    if (!Array.isArray(list)) return `\`trajectory.values\` has no list for state ${name}`;
+    if (list.length !== n) return `\`trajectory.values.${name}\` has ${list.length} values for ${n} times`;
+    for (let i = 0; i < n; i++) {
+      const v = list[i];
+      if (typeof v !== 'number' || !Number.isFinite(v)) return `\`trajectory.values.${name}[${i}]\` is ${v === null ? 'null' : JSON.stringify(v) ?? String(v)}, not a finite number`;
+      byTime[i]![s] = v;
+    }
+  }
+  return { timeLeft, values: byTime };
 }
 
 export interface ParseExpect {
@@ -151,6 +196,14 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
     scheduler = s;
   }
 
+  let trajectory: Solved['trajectory'];
+  if (doc.trajectory !== undefined) {
+    const tb = expect.timeBound ?? (typeof doc.time_bound === 'number' ? doc.time_bound : undefined);
+    const tr = parseTrajectory(doc.trajectory, stateNames, tb);
+    if (typeof tr === 'string') return fail('bad-format', tr);
+    trajectory = tr;
+  }
+
   // --- values, in state order ---
   const values = new Float64Array(stateNames.length);
   const missing = stateNames.filter((n) => !Object.hasOwn(doc.values as object, n));
@@ -188,6 +241,7 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
     errorBound: eb,
     ...(scheduler ? { scheduler } : {}),
     stats,
+    ...(trajectory ? { trajectory } : {}),
   };
   return assumed ? { ok: true, solved, boundAssumed: true, reported } : { ok: true, solved, reported };
 }

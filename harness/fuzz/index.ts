@@ -13,6 +13,7 @@ import fc from 'fast-check';
 import { buildModel, type ModelObject } from '../../corpus/format/build.js';
 import { exportJson } from '../../corpus/format/export.js';
 import { arbAdversarialModelObject } from '../../corpus/generators/adversarial.js';
+import { arbDipModelObject } from '../../corpus/generators/dip.js';
 import { arbModelObject, arbSwitchingModelObject } from '../../corpus/generators/random.js';
 import { checkModel } from '../check/checkModel.js';
 import { shellQuote } from '../check/reproduce.js';
@@ -89,25 +90,28 @@ function judgeModel(obj: ModelObject, opts: FuzzOptions): Promise<ModelReport> {
   });
 }
 
-export type FuzzFamily = 'random' | 'switching' | 'adversarial';
+export type FuzzFamily = 'random' | 'switching' | 'adversarial' | 'dip';
 
 /**
- * The families of a fuzz run and their weights (out of 16): 9 unstructured random models; 3 chains
+ * The families of a fuzz run and their weights (out of 16): 8 unstructured random models; 3 chains
  * of race gadgets whose optimal decisions switch in time (random models rarely make decisions
  * switch); 4 — one model in four — adversarial near-ties (corpus/generators/adversarial.ts: ties
  * at orders 0 … 3 with tiny relative gaps, frozen goals with huge rates, fast unrelated states,
- * models scaled by 10^±150, rates in every decimal form, both players, both goal modes).
+ * models scaled by 10^±150, rates in every decimal form, both players, both goal modes); 1
+ * near-tangent crossing (corpus/generators/dip.ts: the better action changes twice within a short
+ * time, so a decision held over a step is wrong inside it and right at both of its ends).
  */
 export function fuzzArbitrary(maxStates: number): fc.Arbitrary<{ family: FuzzFamily; model: ModelObject }> {
   const tag = (family: FuzzFamily) => (model: ModelObject) => ({ family, model });
   return fc.oneof(
     { withCrossShrink: true },
-    { weight: 9, arbitrary: arbModelObject({ maxStates, decades: 4, maxTime: 2, kind: 'any' }).map(tag('random')) },
+    { weight: 8, arbitrary: arbModelObject({ maxStates, decades: 4, maxTime: 2, kind: 'any' }).map(tag('random')) },
     {
       weight: 3,
       arbitrary: arbSwitchingModelObject({ maxGadgets: Math.max(1, Math.floor((maxStates - 2) / 2)) }).map(tag('switching')),
     },
     { weight: 4, arbitrary: arbAdversarialModelObject({ maxStates }).map(tag('adversarial')) },
+    { weight: 1, arbitrary: arbDipModelObject().map(tag('dip')) },
   );
 }
 
@@ -142,7 +146,7 @@ export async function runFuzz(opts: FuzzOptions): Promise<FuzzSummary> {
   });
   const out = await fc.check(prop, { numRuns: opts.runs, seed: opts.seed });
   const seconds = (performance.now() - t0) / 1000;
-  const drawn: Record<FuzzFamily, number> = { random: 0, switching: 0, adversarial: 0 };
+  const drawn: Record<FuzzFamily, number> = { random: 0, switching: 0, adversarial: 0, dip: 0 };
   for (const f of families.slice(0, out.numRuns)) drawn[f]++;
   if (!out.failed || !out.counterexample) return { runs: out.numRuns, drawn, seed: opts.seed, seconds };
   const model = out.counterexample[0].model;

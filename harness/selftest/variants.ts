@@ -9,7 +9,8 @@ import { registerPlanted, type PlantedMethod } from '../check/planted.js';
 import type { Outcome } from '../../corpus/format/result.js';
 import type { Model } from '../../corpus/format/types.js';
 import { solveEuler } from '../../solvers/euler/index.js';
-import { CHECK_EULER_MAX_WORK } from '../check/methods.js';
+import { CHECK_DEFECT_MAX_WORK, CHECK_EULER_MAX_WORK } from '../check/methods.js';
+import { solveDefect } from '../../solvers/defect/index.js';
 import { chooseEpsilon } from '../../solvers/kstep/bound.js';
 import { solveKstep } from '../../solvers/kstep/index.js';
 import { solveUniformization } from '../../solvers/uniformization/index.js';
@@ -73,6 +74,11 @@ export const VARIANTS: readonly Variant[] = [
     name: 'loose-tie',
     bug: 'coefficient differences below 1e-6 of a scale with the largest exit rate are ties the bound does not pay for (k-step scheme)',
     solve: (_model, m, p) => relabel(solveKstep(m, { precision: p, k: 3, looseTie: 1e-6 }), 'loose-tie'),
+  },
+  {
+    name: 'defect-ends',
+    bug: "the defect's range on a step is taken from its values at the step's two ends only, so a defect peaking inside a step is missed (defect)",
+    solve: (_model, m, p) => relabel(solveDefect(m, { precision: p, maxWork: CHECK_DEFECT_MAX_WORK, rangeAtEnds: true }), 'defect-ends'),
   },
   {
     name: 'bound-third',

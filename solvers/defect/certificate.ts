@@ -33,7 +33,11 @@ export class StepDefect {
   private readonly P: Float64Array;
   private readonly M: Float64Array;
 
-  constructor(readonly m: CompiledModel, readonly K: number, readonly frozen: Uint8Array) {
+  /**
+   * `rangeAtEnds` is a planted bug for `selftest` only (variant:defect-ends): each e_a is "enclosed" by
+   * its values at the step's two ends, which misses a defect that peaks inside the step.
+   */
+  constructor(readonly m: CompiledModel, readonly K: number, readonly frozen: Uint8Array, private readonly rangeAtEnds = false) {
     this.S = m.nStates;
     this.q = new Float64Array((K + 1) * m.nActions);
     this.qErr = new Float64Array((K + 1) * m.nActions);
@@ -77,7 +81,17 @@ export class StepDefect {
       e[j] = v;
       de[j] = (a < 0 ? 0 : qErr[a * (K + 1) + j]!) + UNIT_ROUNDOFF * (Math.abs(fd) + Math.abs(v));
     }
+    if (this.rangeAtEnds) return this.atEnds(h);
     bernsteinEnclosure(e, de, K, h, this.wts, this.scratch, this.lo, this.hi);
+  }
+
+  /** The planted bug (see the constructor): lo, hi from e(0) and e(h) alone. */
+  private atEnds(h: number): void {
+    const { e, K } = this;
+    let end = e[K]!;
+    for (let j = K - 1; j >= 0; j--) end = end * h + e[j]!;
+    this.lo.fill(Math.min(e[0]!, end));
+    this.hi.fill(Math.max(e[0]!, end));
   }
 
   private take(plus: boolean, minus: boolean, lo: Float64Array, hi: Float64Array): void {
@@ -96,7 +110,14 @@ export class StepDefect {
     const { m, S, K, lo, hi, bestLo, bestHi } = this;
     this.P.fill(0);
     this.M.fill(0);
-    const pos = (x: Float64Array, sign: number): number => x.reduce((acc, v) => acc + Math.max(sign * v, 0), 0);
+    const pos = (x: Float64Array, sign: number): number => {
+      let acc = 0;
+      for (let i = 0; i <= K; i++) {
+        const v = sign * x[i]!;
+        if (v > 0) acc += v;
+      }
+      return acc;
+    };
     for (let s = 0; s < S; s++) {
       const a0 = m.actionStart[s]!;
       const a1 = m.actionStart[s + 1]!;
@@ -172,49 +193,85 @@ export interface Certificate {
 }
 
 /**
- * Certifies the dense solution given by `steps` (time left from 0, in the model's time unit; the
- * steps' lengths should sum to T — the end of the last step is taken as T, and a difference is
- * charged as λ·|T − Σh|, since |v′| ≤ λ). Every step has polynomials of degree K.
+ * Certifies a dense solution step by step (time left from 0, in the model's time unit), so that a
+ * long solution need not be held in memory: add() each step in order, then finish(). The steps'
+ * lengths should sum to T — the end of the last step is taken as T, and a difference is charged as
+ * λ·|T − Σh|, since |v′| ≤ λ. Every step has polynomials of degree K.
  */
-export function certify(m: CompiledModel, steps: readonly DenseStep[], K: number): Certificate {
-  const S = m.nStates;
-  const frozen = new Uint8Array(S);
-  let lambda = 0;
-  for (let s = 0; s < S; s++) {
-    if (m.actionStart[s + 1] === m.actionStart[s] || (m.goalMode === 'within' && m.goal[s])) frozen[s] = 1;
-    else for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) lambda = Math.max(lambda, m.exitRate[a]!);
+export class Certifier {
+  private readonly S: number;
+  private readonly sd: StepDefect;
+  private readonly lambda: number;
+  private prev: Float64Array;
+  private prevErr = 0;
+  private plus = 0;
+  private minus = 0;
+  private jumpUp = 0;
+  private jumpDown = 0;
+  private total = 0;
+  private readonly still: Uint8Array;
+  private spare: Float64Array;
+  /** Steps added so far. */
+  steps = 0;
+
+  constructor(private readonly m: CompiledModel, private readonly K: number) {
+    const S = (this.S = m.nStates);
+    const frozen = new Uint8Array(S);
+    let lambda = 0;
+    for (let s = 0; s < S; s++) {
+      if (m.actionStart[s + 1] === m.actionStart[s] || (m.goalMode === 'within' && m.goal[s])) frozen[s] = 1;
+      else for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) lambda = Math.max(lambda, m.exitRate[a]!);
+    }
+    this.lambda = lambda;
+    this.sd = new StepDefect(m, K, frozen);
+    this.prev = new Float64Array(S);
+    for (let s = 0; s < S; s++) this.prev[s] = m.goal[s]!;
+    this.still = new Uint8Array(S);
+    this.spare = new Float64Array(S);
   }
-  const sd = new StepDefect(m, K, frozen);
-  let prev = new Float64Array(S);
-  for (let s = 0; s < S; s++) prev[s] = m.goal[s]!;
-  let prevErr = 0;
-  let plus = 0;
-  let minus = 0;
-  let jumpUp = 0;
-  let jumpDown = 0;
-  let total = 0;
-  for (const st of steps) {
+
+  add(st: DenseStep): void {
+    const { S, K, sd } = this;
     // Jump from the previous end (or v(0)) to this start, with the previous evaluation's rounding.
     let up = 0;
     let down = 0;
     for (let s = 0; s < S; s++) {
-      const d = st.coef[s]! - prev[s]!;
+      const d = st.coef[s]! - this.prev[s]!;
       up = Math.max(up, d);
       down = Math.max(down, -d);
     }
-    jumpUp += (up + prevErr) * (1 + 1e-12);
-    jumpDown += (down + prevErr) * (1 + 1e-12);
+    this.jumpUp += (up + this.prevErr) * (1 + 1e-12);
+    this.jumpDown += (down + this.prevErr) * (1 + 1e-12);
     for (let j = 0; j <= K; j++) sd.apply(st.coef, j);
     const r = sd.rates(st.coef, st.h);
-    plus += st.h * r.plus;
-    minus += st.h * r.minus;
-    const next = new Float64Array(S);
-    prevErr = evaluateEnd(st.coef, S, K, st.h, next);
-    prev = next;
-    total += st.h;
+    this.plus += st.h * r.plus;
+    this.minus += st.h * r.minus;
+    // A state whose higher coefficients are all 0 is constant on the step: its end is c_0, exactly.
+    const still = this.still;
+    for (let s = 0; s < S; s++) {
+      let c = 1;
+      for (let j = 1; j <= K && c; j++) if (st.coef[j * S + s] !== 0) c = 0;
+      still[s] = c;
+    }
+    const next = this.spare;
+    this.prevErr = evaluateEnd(st.coef, S, K, st.h, next, still);
+    this.spare = this.prev;
+    this.prev = next;
+    this.total += st.h;
+    this.steps++;
   }
-  const timeGap = lambda * Math.abs(m.timeBound - total) * (1 + 1e-12);
-  const lowerDev = (plus + jumpUp + prevErr + timeGap) * (1 + 1e-9);
-  const upperDev = (minus + jumpDown + prevErr + timeGap) * (1 + 1e-9);
-  return { values: prev, lowerDev, upperDev, errorBound: Math.max(lowerDev, upperDev) };
+
+  finish(): Certificate {
+    const timeGap = this.lambda * Math.abs(this.m.timeBound - this.total) * (1 + 1e-12);
+    const lowerDev = (this.plus + this.jumpUp + this.prevErr + timeGap) * (1 + 1e-9);
+    const upperDev = (this.minus + this.jumpDown + this.prevErr + timeGap) * (1 + 1e-9);
+    return { values: this.prev, lowerDev, upperDev, errorBound: Math.max(lowerDev, upperDev) };
+  }
+}
+
+/** Certifies the dense solution given by `steps` at once (see Certifier). */
+export function certify(m: CompiledModel, steps: readonly DenseStep[], K: number): Certificate {
+  const c = new Certifier(m, K);
+  for (const st of steps) c.add(st);
+  return c.finish();
 }

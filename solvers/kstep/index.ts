@@ -26,6 +26,7 @@ import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import { chooseEpsilon, inputBound, localBound, roundingBound, singleCoefNorm } from './bound.js';
 import { scaleTime } from '../shared/scale.js';
 import { makeWork, runInterval, type KstepWork } from './interval.js';
+import { emitPieces, type DenseSink } from '../shared/dense.js';
 
 export interface KstepOptions {
   readonly precision: number;
@@ -36,6 +37,8 @@ export interface KstepOptions {
   /** Use exactly this many equal intervals instead of choosing ε from the precision (for studies
    *  of convergence); the bound is still reported, and the result refused if it exceeds precision. */
   readonly intervals?: number;
+  /** Receives the level-k functions of every interval, for an a-posteriori certificate (../shared/dense.ts). */
+  readonly dense?: DenseSink;
   /** Planted bug for `selftest` (variant:loose-tie) only: a tie tolerance the bound does not pay for. */
   readonly looseTie?: number;
 }
@@ -108,6 +111,10 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
 
   // --- the intervals -------------------------------------------------------------------------
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
+  if (opts.dense) {
+    w.levelK = { coef: new Float64Array((k + 1) * S), pieces: new Map() };
+    opts.dense.begin(m, k, scaled.flushBound);
+  }
   let x = Float64Array.from(x0);
   let next = new Float64Array(S);
   let trunc = 0;
@@ -131,6 +138,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
       tieLoss += w.tieLoss;
       intervals++;
       rec.record(w, t0);
+      if (opts.dense) emitPieces(opts.dense, len, w.levelK!.coef, w.levelK!.pieces, k);
       const tmp = x;
       x = next;
       next = tmp;

@@ -21,6 +21,15 @@ import { absSum, gamma } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
 
+/**
+ * The level-k functions of an interval: c_i(s) at coef[i·S + s] for a state with one polynomial on
+ * [0, len] (f = x + Σ_i r_i τ^{i+1}/(i+1)), and the piecewise function of a state in `pieces`.
+ */
+export interface LevelK {
+  readonly coef: Float64Array;
+  readonly pieces: Map<number, Piecewise>;
+}
+
 export interface KstepWork {
   readonly m: CompiledModel;
   readonly k: number;
@@ -63,6 +72,11 @@ export interface KstepWork {
   /** Largest ∫ over the interval of what a tie decision can lose, over states and levels (see dominant). */
   tieLoss: number;
   maxPieces: number;
+  /**
+   * When set (a caller that certifies the dense solution), runInterval stores each state's level-k
+   * function on [0, len] here: nothing else reads it, and nothing is stored when it is unset.
+   */
+  levelK?: LevelK;
   /** Largest Σ_i |c_i| len^i over the pieces of piecewise results (single polynomials obey the
    *  a-priori bound e^{2λ·len}, see ./bound.ts). */
   coefNorm: number;
@@ -191,6 +205,7 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
   for (let i = 0; i < n; i++) w.coefNorm = Math.max(w.coefNorm, absSum(f.coef, i * PS, j, len));
   w.act[s] = -1;
   if (j === k) {
+    if (w.levelK) w.levelK.pieces.set(s, f);
     if (nA > 1) {
       const lenOf = new Float64Array(nA);
       for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
@@ -268,6 +283,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
   const S = m.nStates;
   w.dPrev.fill(0);
   w.nDirtyPrev = 0;
+  w.levelK?.pieces.clear();
   w.pwPrev.clear();
   const nPend = { n: 0 };
   for (let j = 1; j <= k; j++) {
@@ -293,6 +309,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
         if (last) out[s] = x[s]!;
+        if (last && w.levelK) for (let i = 0; i <= k; i++) w.levelK.coef[i * S + s] = i === 0 ? x[s]! : 0;
         continue;
       }
       const a0 = actionStart[s]!;
@@ -328,6 +345,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         v = xs + v * len;
         out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
         if (nA > 1) w.dec[s] = a0 + best;
+        if (w.levelK) for (let i = 0; i <= k; i++) w.levelK.coef[i * S + s] = i === 0 ? xs : R[o + i - 1]! / i;
       } else if (dirty) {
         const pi = nPend.n++;
         w.pendS[pi] = s;
@@ -350,3 +368,4 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
   }
   return true;
 }
+

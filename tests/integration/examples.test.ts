@@ -1,6 +1,6 @@
 /**
  * The examples keep working: the Python example solver passes `check` on corpus models as an external
- * solver (and its bound is honoured), and the CI workflow's `run:` steps, run here in order with the
+ * solver (and its bound is honoured, and confirmed by the certificate of the trajectory it returns), and the CI workflow's `run:` steps, run here in order with the
  * matrix filled in, check a small corpus in three shards and merge them into one verdict.
  */
 import { spawnSync } from 'node:child_process';
@@ -22,9 +22,16 @@ describe('examples', () => {
       '--solver', 'python3 examples/solvers/euler_adapter.py {model} {precision}',
     ]);
     expect(r.code, r.stdout + r.stderr).toBe(0);
-    const report = JSON.parse(readFileSync(join(dir, 'out.json'), 'utf8')) as { verdict: string; models: { verdict: string }[] };
+    type Check = { kind: string; status: string; certified?: { bound: number; claim: number; outcome: string } };
+    const report = JSON.parse(readFileSync(join(dir, 'out.json'), 'utf8')) as { verdict: string; models: { verdict: string; checks: Check[] }[] };
     expect(report.verdict).toBe('pass');
     expect(report.models.map((m) => m.verdict)).toEqual(['pass', 'pass', 'pass']);
+    // Its trajectory is certified on every model, and the certificate confirms its claimed bound.
+    for (const m of report.models) {
+      const c = m.checks.find((x) => x.kind === 'certified');
+      expect(c?.status).toBe('passed');
+      expect(c!.certified!.bound).toBeLessThanOrEqual(c!.certified!.claim);
+    }
   });
 
   it('examples/ci/github-actions.yml: its run steps check three shards and merge them', () => {

@@ -11,8 +11,8 @@ describe('crossbound fuzz', () => {
   it('finds no disagreement among the correct methods (seed 5, 40 models)', () => {
     const r = crossbound(['fuzz', '--runs', '40', '--seed', '5', '--max-states', '8', '--no-save'], 1_800_000);
     expect(r.stdout).toMatch(/40 random models \(seed 5, up to 8 states\), no disagreement/);
-    const drawn = /families drawn: (\d+) random, (\d+) switching, (\d+) adversarial/.exec(r.stdout);
-    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3])).toBe(40);
+    const drawn = /families drawn: (\d+) random, (\d+) switching, (\d+) adversarial \(near-ties\), (\d+) dip/.exec(r.stdout);
+    expect(drawn && Number(drawn[1]) + Number(drawn[2]) + Number(drawn[3]) + Number(drawn[4])).toBe(40);
     expect(Number(drawn?.[3])).toBeGreaterThan(3);
     expect(r.code).toBe(0);
   }, 1_800_000);
@@ -40,9 +40,11 @@ describe('crossbound selftest', () => {
   it('catches every broken variant of the own solvers by name', () => {
     const r = crossbound(['selftest', 'corpus/models', '--fuzz-runs', '60', '--jobs', '1'], 1_800_000);
     expect(r.stdout).toMatch(/selftest: (\d+) of \1 broken variants caught/);
-    for (const v of ['min-as-max', 'selfloop-exit', 'short-tail', 'at-absorbing', 'skip-last', 'loose-tie', 'bound-third']) expect(r.stdout).toMatch(new RegExp(`^${v}\\s+yes`, 'm'));
+    for (const v of ['min-as-max', 'selfloop-exit', 'short-tail', 'at-absorbing', 'skip-last', 'loose-tie', 'defect-ends', 'bound-third']) expect(r.stdout).toMatch(new RegExp(`^${v}\\s+yes`, 'm'));
     // loose-tie is caught by the fuzz stage itself (its fuzz column names the failed check), not only by a corpus file.
     expect(r.stdout).toMatch(/^loose-tie\s+yes\s+\d+\s+agree variant:loose-tie ~ kstep:4/m);
+    // defect-ends too, on a near-tangent crossing (corpus/generators/dip.ts) that the corpus lacks.
+    expect(r.stdout).toMatch(/^defect-ends\s+yes\s+\d+\s+.*agree variant:defect-ends ~ kstep:4/m);
     expect(r.code).toBe(0);
   }, 1_800_000);
 });

@@ -108,4 +108,32 @@ describe('parseResult', () => {
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', values: { both_ok: null } })).toBe('missing-state');
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', values: { both_ok: null, a_worn: 0, dry: 1 } })).toBe('bad-value');
   });
+
+  it('`trajectory`: read in state order by time; every broken rule is bad-format and names the rule', () => {
+    const tr = { time_left: [0, 6, 12], values: { both_ok: [0, 0.2, 0.41234], a_worn: [0, 0.5, 0.7], dry: [1, 1, 1] } };
+    const r = parse({ ...good(), trajectory: tr }, { timeBound: 12 });
+    expect(r.ok).toBe(true);
+    if (r.ok !== true) return;
+    expect([...r.solved.trajectory!.timeLeft]).toEqual([0, 6, 12]);
+    expect([...r.solved.trajectory!.values[1]!]).toEqual([0.2, 0.5, 1]);
+    const detail = (t: unknown, timeBound = 12): string => {
+      const x = parse({ ...good(), time_bound: undefined, trajectory: t }, { timeBound });
+      return x.ok === false ? `${x.fault}: ${x.detail}` : 'ok';
+    };
+    const vals = tr.values;
+    expect(detail([1, 2])).toBe('bad-format: `trajectory` is not an object');
+    expect(detail({ ...tr, time_left: [0] })).toMatch(/at least two times/);
+    expect(detail({ ...tr, time_left: [1e-300, 6, 12] })).toMatch(/must start at 0/);
+    expect(detail({ ...tr, time_left: [0, 6, 6] })).toMatch(/increase strictly \(index 2/);
+    expect(detail({ ...tr, time_left: [0, 12, 6] })).toMatch(/increase strictly \(index 2/);
+    expect(detail({ ...tr, time_left: [0, null, 12] })).toMatch(/time_left\[1\]. is null, not a finite number/);
+    expect(detail({ ...tr, time_left: [0, 6, 11.9] })).toMatch(/must end at the time bound 12/);
+    expect(detail(tr, 12 * (1 + 1e-13))).toBe('ok'); // within the relative 1e-12
+    expect(detail({ ...tr, values: { both_ok: vals.both_ok, dry: vals.dry } })).toMatch(/no list for state a_worn/);
+    expect(detail({ ...tr, values: { ...vals, dry: [1, 1] } })).toMatch(/values.dry. has 2 values for 3 times/);
+    expect(detail({ ...tr, values: { ...vals, a_worn: [0, null, 0.7] } })).toMatch(/values.a_worn\[1\]. is null, not a finite number/);
+    expect(detail({ ...tr, values: { ...vals, a_worn: [0, '0.5', 0.7] } })).toMatch(/is "0.5", not a finite number/);
+    const long = Array.from({ length: 100_001 }, (_, i) => (12 * i) / 100_000);
+    expect(detail({ ...tr, time_left: long })).toMatch(/more than the limit 100000/);
+  });
 });
