@@ -23,6 +23,7 @@
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
+import { aposterioriBound } from './aposteriori.js';
 import { chooseEpsilon, inputBound, localBound, roundingBound, singleCoefNorm } from './bound.js';
 import { scaleTime } from '../shared/scale.js';
 import { makeWork, runInterval, type KstepWork } from './interval.js';
@@ -36,6 +37,9 @@ export interface KstepOptions {
   /** Use exactly this many equal intervals instead of choosing ε from the precision (for studies
    *  of convergence); the bound is still reported, and the result refused if it exceeds precision. */
   readonly intervals?: number;
+  /** Lengths adapted interval by interval from the a-posteriori bound (default true; ignored, i.e.
+   *  false, when `intervals` is given). With false, every interval has the a-priori length ε₀. */
+  readonly adaptive?: boolean;
   /** Planted bug for `selftest` (variant:loose-tie) only: a tie tolerance the bound does not pay for. */
   readonly looseTie?: number;
 }
@@ -107,6 +111,12 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`, 'work-cap');
 
   // --- the intervals -------------------------------------------------------------------------
+  // Each interval's truncation term is min(L, A): the a-priori bound (L) of ./bound.ts or the
+  // a-posteriori bound (A) of ./aposteriori.ts, both valid beside the rounding term ρ. With fixed
+  // lengths (option `intervals`, or `adaptive: false`) the lengths are T/N. Otherwise lengths adapt:
+  // an interval [t0, t1] is accepted when the truncation spent so far stays within budget·t1/T;
+  // one of length ≤ ε₀ (the a-priori length) always is, since then L ≤ budget·len/T. A rejected one
+  // is run again shorter (never below ε₀); the next length aims A at 0.8·budget·len/T.
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
   let x = Float64Array.from(x0);
   let next = new Float64Array(S);
@@ -114,39 +124,89 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   let round = 0;
   let intervals = 0;
   let halvings = 0;
+  let rejected = 0;
   let maxPieces = 1;
   let tieLoss = 0;
+  let aposteriori = 0;
   const rec = new ChoiceRecorder(m, T, unit);
-  const span = (t0: number, t1: number, depth: number): string | undefined => {
-    const len = t1 - t0;
+  /** Runs [t0, t0 + len]; the truncation term, or NaN when the piece cap is exceeded. */
+  const attempt = (len: number): number => {
     w.coefNorm = 1;
     w.tieLoss = 0;
     w.maxPieces = 1;
     w.pieceDec.clear();
-    if (runInterval(w, x, len, next)) {
-      trunc += localBound(lambda, len, k);
-      const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
-      round += roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss);
-      maxPieces = Math.max(maxPieces, w.maxPieces);
-      tieLoss += w.tieLoss;
-      intervals++;
-      rec.record(w, t0);
-      const tmp = x;
-      x = next;
-      next = tmp;
-      return undefined;
-    }
-    if (depth >= 10) return `more than ${w.pieceCap} pieces in one state even on an interval of length ${len}`;
-    halvings++;
-    const mid = t0 + 0.5 * len;
-    return span(t0, mid, depth + 1) ?? span(mid, t1, depth + 1);
+    if (!runInterval(w, x, len, next)) return NaN;
+    const A = aposterioriBound(w, lambda, len);
+    const L = localBound(lambda, len, k);
+    return Math.min(A, L);
   };
-  for (let i = 0; i < N; i++) {
-    const t0 = i * eps;
-    const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
-    if (!(t1 > t0)) continue;
-    const why = span(t0, t1, 0);
-    if (why) return refuse(why, 'work-cap');
+  const commit = (t0: number, len: number, b: number): void => {
+    trunc += b;
+    if (b < localBound(lambda, len, k)) aposteriori++;
+    const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
+    round += roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss);
+    maxPieces = Math.max(maxPieces, w.maxPieces);
+    tieLoss += w.tieLoss;
+    intervals++;
+    rec.record(w, t0);
+    const tmp = x;
+    x = next;
+    next = tmp;
+  };
+  const capped = (len: number): string => `more than ${w.pieceCap} pieces in one state even on an interval of length ${len * unit}`;
+  const adaptive = opts.intervals === undefined && opts.adaptive !== false;
+  if (!adaptive) {
+    const span = (t0: number, t1: number, depth: number): string | undefined => {
+      const len = t1 - t0;
+      const b = attempt(len);
+      if (b === b) {
+        commit(t0, len, b);
+        return undefined;
+      }
+      if (depth >= 10) return capped(len);
+      halvings++;
+      const mid = t0 + 0.5 * len;
+      return span(t0, mid, depth + 1) ?? span(mid, t1, depth + 1);
+    };
+    for (let i = 0; i < N; i++) {
+      const t0 = i * eps;
+      const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
+      if (!(t1 > t0)) continue;
+      const why = span(t0, t1, 0);
+      if (why) return refuse(why, 'work-cap');
+    }
+  } else {
+    const rate = budget / T;
+    const eps0 = eps;
+    const epsMax = Math.max(eps0, 1 / lambda);
+    const floor = eps0 * 2 ** -10;
+    let t0 = 0;
+    let len = eps0;
+    let attempts = 0;
+    while (t0 < T) {
+      if (++attempts > 2048 * N + 1000) return refuse(`more than ${attempts} interval attempts (piece cap and halvings)`, 'work-cap');
+      // The last interval ends exactly at T; rather than leave a sliver, the rest is cut in halves.
+      const rest = T - t0;
+      const l = rest <= len ? rest : rest < 1.5 * len ? 0.5 * rest : len;
+      const b = attempt(l);
+      if (b !== b) {
+        halvings++;
+        if (0.5 * l < floor) return refuse(capped(l), 'work-cap');
+        len = 0.5 * l;
+        continue;
+      }
+      const t1 = l === rest ? T : t0 + l;
+      const allowed = rate * t1;
+      const aim = b > 0 ? Math.pow((0.8 * rate * l) / b, 1 / k) : 4;
+      if (l > eps0 && trunc + b > allowed) {
+        rejected++;
+        len = Math.max(eps0, l * Math.min(0.9, aim));
+        continue;
+      }
+      commit(t0, l, b);
+      t0 = t1;
+      len = Math.min(epsMax, Math.max(eps0, l * Math.min(2, Math.max(0.5, aim))));
+    }
   }
   // Summing the bounds in floating point: a relative margin of 1e-9 covers its rounding.
   const errorBound = (trunc + round + inputBound(lambda * T) + scaled.flushBound) * (1 + 1e-9);
@@ -155,6 +215,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const stats = {
     intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
     truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
+    rejected, aposterioriIntervals: aposteriori,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }

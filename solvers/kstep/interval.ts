@@ -20,6 +20,7 @@ import type { CompiledModel } from '../../corpus/format/compile.js';
 import { absSum, gamma } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
+import { noteSingle, notePiecewise, resetDifference } from './aposteriori.js';
 
 export interface KstepWork {
   readonly m: CompiledModel;
@@ -69,6 +70,15 @@ export interface KstepWork {
   slowStates: number;
   /** State-levels recomputed in full because a successor (or the state) changed. */
   dirtyStates: number;
+  /**
+   * A-posteriori majorant of the last two levels' difference (./aposteriori.ts): for every state s
+   * whose level k is a single polynomial, |f^k_s(τ) − f^{k−1}_s(τ)| ≤ Σ_i dPoly[i]·τ^i on [0, len];
+   * for the others, ≤ dConst. Reset by runInterval.
+   */
+  readonly dPoly: Float64Array;
+  dConst: number;
+  /** Scratch for the Taylor shift of ./aposteriori.ts. */
+  readonly shiftBuf: Float64Array;
 }
 
 /** Longest row (successors) of any action plus one: the length d + 1 of a coefficient's dot product. */
@@ -85,6 +95,7 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
+    dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1),
   };
 }
 
@@ -191,6 +202,8 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
   for (let i = 0; i < n; i++) w.coefNorm = Math.max(w.coefNorm, absSum(f.coef, i * PS, j, len));
   w.act[s] = -1;
   if (j === k) {
+    const prev = w.dPrev[s] === 2 ? w.pwPrev.get(s)! : previousSingle(w, s, x[s]!, len);
+    notePiecewise(w, f, prev, k);
     if (nA > 1) {
       const lenOf = new Float64Array(nA);
       for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
@@ -222,6 +235,14 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
     w.dCur[s] = 2;
   }
   return 0;
+}
+
+/** Level k − 1 of a single-polynomial state as a one-piece function (c_0 = x_s, c_i from C). */
+function previousSingle(w: KstepWork, s: number, xs: number, len: number): Piecewise {
+  const c = new Float64Array(w.k + 1);
+  c[0] = xs;
+  for (let i = 1; i < w.k; i++) c[i] = w.C[i]![s]!;
+  return single(c, 0, w.k, w.k + 1, 0, len);
 }
 
 /** r_{a,i} for i = lo … j−1 from the coefficient arrays (i = 0 reads x). */
@@ -269,6 +290,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
   w.dPrev.fill(0);
   w.nDirtyPrev = 0;
   w.pwPrev.clear();
+  resetDifference(w);
   const nPend = { n: 0 };
   for (let j = 1; j <= k; j++) {
     const last = j === k;
@@ -328,6 +350,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         v = xs + v * len;
         out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
         if (nA > 1) w.dec[s] = a0 + best;
+        noteSingle(w, s, o);
       } else if (dirty) {
         const pi = nPend.n++;
         w.pendS[pi] = s;
