@@ -79,6 +79,25 @@ export interface KstepWork {
   dConst: number;
   /** Scratch for the Taylor shift of ./aposteriori.ts. */
   readonly shiftBuf: Float64Array;
+  /** Predecessors of each state (CSR over states: s' → every s with an action reaching s'). */
+  readonly predStart: Int32Array;
+  readonly pred: Int32Array;
+  /** Largest dirtiness (0, 1, 2) among the successors of each state on the previous level. */
+  readonly need: Uint8Array;
+}
+
+/** Predecessor lists over states, built once per model. */
+function predecessors(m: CompiledModel): { predStart: Int32Array; pred: Int32Array } {
+  const S = m.nStates;
+  const predStart = new Int32Array(S + 1);
+  for (let t = 0; t < m.nTransitions; t++) predStart[m.col[t]! + 1]++;
+  for (let s = 0; s < S; s++) predStart[s + 1] += predStart[s]!;
+  const fill = predStart.slice(0, S);
+  const pred = new Int32Array(m.nTransitions);
+  for (let s = 0; s < S; s++)
+    for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++)
+      for (let t = m.rowStart[a]!; t < m.rowStart[a + 1]!; t++) pred[fill[m.col[t]!]!++] = s;
+  return { predStart, pred };
 }
 
 /** Longest row (successors) of any action plus one: the length d + 1 of a coefficient's dot product. */
@@ -95,7 +114,7 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     dPrev: new Uint8Array(S), dCur: new Uint8Array(S), nDirtyPrev: 0, pendS: new Int32Array(S), pendC: new Float64Array(S * k),
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
-    dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1),
+    dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1), ...predecessors(m), need: new Uint8Array(S),
   };
 }
 
@@ -155,7 +174,7 @@ function dominant(w: KstepWork, s: number, a0: number, nA: number, j: number, le
       p *= len;
       rest += Math.abs(diff[i]!) * p;
     }
-    if (diff[0]! + rest <= 0) continue;
+    if (diff[0]! + rest <= 0 || shiftedMax(w.shiftBuf, diff, j - 1, len, rest + Math.abs(diff[0]!)) <= 0) continue;
     for (const r of realRoots(diff, 0, j - 1, 0, len)) if (r > 0 && r < len) return -1;
     // No crossing inside: the sign is constant on (0, len). Charge what b may be better by.
     if (w.looseTie > 0) continue;
@@ -167,6 +186,22 @@ function dominant(w: KstepWork, s: number, a0: number, nA: number, j: number, le
     if (loss > 0) w.tieLoss = Math.max(w.tieLoss, loss * len * (1 + 1e-12));
   }
   return best;
+}
+
+/**
+ * An upper bound of the polynomial d (degree deg, in τ) on [0, len], rigorous for the computed
+ * coefficients: re-expanded about c = len/2 by repeated synthetic division into b (Horner's rule,
+ * each b_i within γ_{2deg}·M_i of the exact one, Σ_i M_i (len/2)^i = Σ_j |d_j| len^j = crude; Higham
+ * 2002, §5.1), max ≤ b_0 + Σ_{i≥1} |b_i| (len/2)^i + γ_{2deg+2}·crude. Sharper than d_0 + Σ|d_i| len^i
+ * where d falls (it keeps the cancellation), so that fewer near-switch states call the root finder.
+ */
+function shiftedMax(b: Float64Array, d: Float64Array, deg: number, len: number, crude: number): number {
+  for (let i = 0; i <= deg; i++) b[i] = d[i]!;
+  const c = 0.5 * len;
+  for (let i = 0; i < deg; i++) for (let q = deg - 1; q >= i; q--) b[q] += c * b[q + 1]!;
+  let acc = 0;
+  for (let i = deg; i >= 1; i--) acc = (acc + (b[i]! < 0 ? -b[i]! : b[i]!)) * c;
+  return b[0]! + acc + gamma(2 * deg + 2) * crude * (1 + 1e-12);
 }
 
 /** Slow path for s at level j: returns f^j_s(len), or NaN when the piece cap is exceeded. */
@@ -259,39 +294,37 @@ function accumulate(w: KstepWork, a: number, s: number, lo: number, j: number, x
   }
 }
 
-/**
- * r_{a,i} = Σ R(s,a,s')·c_i(s') − E(s,a)·c_i(s) into R, with c the array of coefficient i; with
- * dPrev given, returns the largest dirtiness among the successors (0 when dPrev is null).
- */
-function accTop(w: KstepWork, a: number, s: number, i: number, c: Float64Array, dPrev: Uint8Array | null): number {
-  const { rowStart, col, rate, exitRate } = w.m;
-  const t0 = rowStart[a]!;
-  const t1 = rowStart[a + 1]!;
-  let acc = 0;
-  let d = 0;
-  if (dPrev === null) {
-    for (let t = t0; t < t1; t++) acc += rate[t]! * c[col[t]!]!;
-  } else {
-    for (let t = t0; t < t1; t++) {
-      const u = col[t]!;
-      acc += rate[t]! * c[u]!;
-      d |= dPrev[u]!;
-    }
+/** max_s |c[s]|. */
+function absMax(c: Float64Array): number {
+  let mx = 0;
+  for (let s = 0; s < c.length; s++) {
+    const v = c[s]! < 0 ? -c[s]! : c[s]!;
+    if (v > mx) mx = v;
   }
-  w.R[a * w.k + i] = acc - exitRate[a]! * c[s]!;
-  return d >= 2 ? 2 : d;
+  return mx;
 }
 
-/** Runs the k levels on [0, len] from x and writes f^k(len), clamped to [0, 1], into out. */
+/**
+ * Runs the k levels on [0, len] from x and writes f^k(len), clamped to [0, 1], into out.
+ * Per level, a clean state costs its rows' dot products for the one new coefficient and the
+ * dominance test; which states are dirty is pushed from the changed states to their predecessors
+ * (work proportional to the changes, not to the transitions).
+ */
 export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Float64Array): boolean {
-  const { m, k, active, R, C } = w;
-  const { actionStart, owner } = m;
+  const { m, k, active, R, C, need, predStart, pred } = w;
+  const { actionStart, owner, rowStart, col, rate, exitRate } = m;
   const S = m.nStates;
   w.dPrev.fill(0);
+  need.fill(0);
   w.nDirtyPrev = 0;
   w.pwPrev.clear();
   resetDifference(w);
   const nPend = { n: 0 };
+  // coefMax[i] ≥ max_s |c_i(s)| of every level of this interval so far (an upper bound is all that
+  // isTie's cheap test needs).
+  w.coefMax.fill(0);
+  w.coefMax[0] = absMax(x);
+  w.coefScale[0] = m.lambda * w.coefMax[0]!;
   for (let j = 1; j <= k; j++) {
     const last = j === k;
     const dPrev = w.dPrev;
@@ -299,37 +332,34 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     const check = w.nDirtyPrev > 0;
     const cj = j === 1 ? x : C[j - 1]!;
     const cOut = last ? null : C[j]!;
+    const top = j - 1;
     dCur.fill(0);
     w.pwCur = new Map();
     nPend.n = 0;
-    for (let i = 0; i < j; i++) {
-      const c = i === 0 ? x : C[i]!;
-      let mx = 0;
-      for (let s = 0; s < S; s++) {
-        const v = c[s]! < 0 ? -c[s]! : c[s]!;
-        if (v > mx) mx = v;
-      }
-      w.coefScale[i] = m.lambda * mx;
-      w.coefMax[i] = mx;
-    }
     for (let s = 0; s < S; s++) {
       if (!active[s]) {
         if (last) out[s] = x[s]!;
         continue;
       }
       const a0 = actionStart[s]!;
-      const nA = actionStart[s + 1]! - a0;
-      let dirty = check ? dPrev[s]! : 0;
-      // The new coefficient r_{a,j−1}, noting on the way whether a successor changed; all of them
-      // when one did.
-      if (dirty === 0) for (let q = 0; q < nA && dirty < 2; q++) dirty = Math.max(dirty, accTop(w, a0 + q, s, j - 1, cj, check ? dPrev : null));
-      if (dirty === 1) {
-        for (let q = 0; q < nA && dirty < 2; q++)
-          for (let t = m.rowStart[a0 + q]!; t < m.rowStart[a0 + q + 1]!; t++) if (dPrev[m.col[t]!] === 2) dirty = 2;
+      const a1 = actionStart[s + 1]!;
+      const nA = a1 - a0;
+      let dirty = 0;
+      if (check) {
+        dirty = dPrev[s]!;
+        if (need[s]! > dirty) dirty = need[s]!;
       }
-      if (dirty === 1) {
+      if (dirty === 0) {
+        // The new coefficient r_{a,j−1} = Σ R(s,a,s')·c_{j−1}(s') − E(s,a)·c_{j−1}(s) of every action.
+        const cs = cj[s]!;
+        for (let a = a0; a < a1; a++) {
+          let acc = 0;
+          for (let t = rowStart[a]!, t1 = rowStart[a + 1]!; t < t1; t++) acc += rate[t]! * cj[col[t]!]!;
+          R[a * k + top] = acc - exitRate[a]! * cs;
+        }
+      } else if (dirty === 1) {
         w.dirtyStates++;
-        for (let q = 0; q < nA; q++) accumulate(w, a0 + q, s, 0, j, x);
+        for (let a = a0; a < a1; a++) accumulate(w, a, s, 0, j, x);
       }
       let best = 0;
       if (dirty < 2 && nA > 1) best = dominant(w, s, a0, nA, j, len, owner[s]! < 0 ? -1 : 1, x);
@@ -342,12 +372,11 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
       const o = (a0 + best) * k;
       if (nA > 1 && j > 1 && best !== w.act[s]) dirty = 1;
       if (nA > 1) w.act[s] = best;
-      const xs = x[s]!;
       if (last) {
         // f^k(len) = x + Σ_i r_i len^{i+1}/(i+1), by Horner in len.
         let v = R[o + j - 1]! / j;
         for (let i = j - 2; i >= 0; i--) v = v * len + R[o + i]! / (i + 1);
-        v = xs + v * len;
+        v = x[s]! + v * len;
         out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
         if (nA > 1) w.dec[s] = a0 + best;
         noteSingle(w, s, o);
@@ -360,12 +389,28 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         cOut![s] = R[o + j - 1]! / j;
       }
     }
+    if (last) break;
     for (let p = 0; p < nPend.n; p++) {
       const s = w.pendS[p]!;
-      for (let i = 1; i <= j; i++) C[i]![s] = w.pendC[p * k + i - 1]!;
+      for (let i = 1; i <= j; i++) {
+        const v = w.pendC[p * k + i - 1]!;
+        C[i]![s] = v;
+        const av = v < 0 ? -v : v;
+        if (av > w.coefMax[i]!) w.coefMax[i] = av;
+      }
     }
+    const mj = absMax(C[j]!);
+    if (mj > w.coefMax[j]!) w.coefMax[j] = mj;
+    for (let i = 1; i <= j; i++) w.coefScale[i] = m.lambda * w.coefMax[i]!;
+    // Dirtiness for the next level: each changed state marks its predecessors.
     let nd = 0;
-    for (let s = 0; s < S; s++) if (dCur[s]) nd++;
+    need.fill(0);
+    for (let s = 0; s < S; s++) {
+      const d = dCur[s]!;
+      if (d === 0) continue;
+      nd++;
+      for (let q = predStart[s]!, q1 = predStart[s + 1]!; q < q1; q++) if (need[pred[q]!]! < d) need[pred[q]!] = d;
+    }
     w.nDirtyPrev = nd;
     w.dPrev = dCur;
     w.dCur = dPrev;
