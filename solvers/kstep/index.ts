@@ -231,21 +231,21 @@ function constantChoices(m: CompiledModel): Record<string, Segment[]> {
 class ChoiceRecorder {
   private readonly cur: Int32Array;
   private readonly segs = new Map<number, Segment[]>();
-  private readonly owned: number[] = [];
+  private readonly owned: Int32Array;
   /** T and times in scaled units; `unit` converts them back (elapsed time = (T − t)·unit). */
   constructor(private readonly m: CompiledModel, private readonly T: number, private readonly unit: number) {
     this.cur = new Int32Array(m.nStates).fill(-1);
-    for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) this.owned.push(s);
+    const owned: number[] = [];
+    for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) owned.push(s);
+    this.owned = Int32Array.from(owned);
   }
   record(w: KstepWork, t0: number): void {
+    const inside = w.pieceDec.size > 0;
     for (const s of this.owned) {
-      const inside = w.pieceDec.get(s);
-      if (inside) {
-        // The decision changes inside the interval: switch at the envelope's breakpoints.
-        for (let i = 0; i < inside.tau.length; i++) this.step(s, inside.action[i]!, t0 + inside.tau[i]!);
-      } else {
-        this.step(s, w.dec[s]!, t0);
-      }
+      // The decision changes inside the interval: switch at the envelope's breakpoints.
+      const pieces = inside ? w.pieceDec.get(s) : undefined;
+      if (pieces) for (let i = 0; i < pieces.tau.length; i++) this.step(s, pieces.action[i]!, t0 + pieces.tau[i]!);
+      else if (w.dec[s] !== this.cur[s]) this.step(s, w.dec[s]!, t0);
     }
   }
   /** From time left `t` on, state s takes global action d (the earlier action holds below t). */

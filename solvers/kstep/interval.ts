@@ -311,7 +311,7 @@ function absMax(c: Float64Array): number {
  * (work proportional to the changes, not to the transitions).
  */
 export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Float64Array): boolean {
-  const { m, k, active, R, C, need, predStart, pred } = w;
+  const { m, k, active, R, C, need, predStart, pred, gammaCoef, coefMax } = w;
   const { actionStart, owner, rowStart, col, rate, exitRate } = m;
   const S = m.nStates;
   w.dPrev.fill(0);
@@ -362,7 +362,37 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         for (let a = a0; a < a1; a++) accumulate(w, a, s, 0, j, x);
       }
       let best = 0;
-      if (dirty < 2 && nA > 1) best = dominant(w, s, a0, nA, j, len, owner[s]! < 0 ? -1 : 1, x);
+      if (dirty < 2 && nA === 2) {
+        // Two actions, the common case, without a call: the first order whose difference is beyond
+        // isTie's cheap test decides, and when the other action's difference polynomial is ≤ 0 on
+        // [0, len] by the crude range bound, nothing is charged. Anything else (a possible tie or
+        // crossing) goes to dominant, which decides exactly as it would have from the start.
+        const sense = owner[s]! < 0 ? -1 : 1;
+        const oa = a0 * k;
+        const ob = oa + k;
+        const tolE = gammaCoef * 2 * (exitRate[a0]! + exitRate[a0 + 1]!) * (1 + 1e-12);
+        let pick = 0;
+        for (let i = 0; i < j; i++) {
+          const d = sense * (R[ob + i]! - R[oa + i]!);
+          if (d === 0) continue;
+          const tol = tolE * coefMax[i]!;
+          pick = d > tol ? 1 : d < -tol ? 0 : -1;
+          break;
+        }
+        if (pick >= 0) {
+          const ob2 = pick === 0 ? ob : oa;
+          const ox = pick === 0 ? oa : ob;
+          let rest = 0;
+          let p = 1;
+          for (let i = 1; i < j; i++) {
+            p *= len;
+            const d = R[ob2 + i]! - R[ox + i]!;
+            rest += (d < 0 ? -d : d) * p;
+          }
+          if (sense * (R[ob2]! - R[ox]!) + rest > 0) pick = -1;
+        }
+        best = pick >= 0 ? pick : dominant(w, s, a0, nA, j, len, sense, x);
+      } else if (dirty < 2 && nA > 1) best = dominant(w, s, a0, nA, j, len, owner[s]! < 0 ? -1 : 1, x);
       if (dirty === 2 || best < 0) {
         const v = slowState(w, s, j, len, x, nPend);
         if (v !== v) return false;
