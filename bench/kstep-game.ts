@@ -4,7 +4,7 @@
  * Equations I", 1993; no error guarantee), one model file shared by both.
  *
  *   npx tsc -p . && node dist/bench/kstep-game.js [--states 20000] [--succ 4] [--seed 1] [--precision 1e-8]
- *        [--k 4] [--rtol 1e-12] [--no-scipy] [--level-pass] [--keep FILE]
+ *        [--k 4] [--rtol 1e-12] [--no-scipy] [--level-pass] [--keep FILE] [--baseline DIR]
  *
  * The model (our own numbers; deterministic by seed, a linear congruential generator): every state has
  * two actions of `succ` random successors with rates 0.05 + U(0, 1) written with 6 decimals, owned by
@@ -72,6 +72,8 @@ function arg(name: string, dflt: string): string {
 
 interface Timed { wall: number; rssMB: number; stdout: string }
 
+let baselineWall = 0;
+
 /** Runs a command under /usr/bin/time -f '%e %M' and returns its wall seconds and peak RSS. */
 function timed(cmd: string, args: string[]): Timed {
   const r = spawnSync('/usr/bin/time', ['-f', '@@time %e %M', cmd, ...args], { encoding: 'utf8', maxBuffer: 1 << 30 });
@@ -91,12 +93,22 @@ function main(): void {
   const model = compile(loadModelFile(file));
   console.log(`model ${model.name}: ${model.nStates} states, ${model.nActions} actions, ${model.nTransitions} transitions, ` +
     `λT = ${(model.lambda * model.timeBound).toFixed(3)}`);
+  const baseline = process.argv.includes('--baseline') ? arg('baseline', '') : '';
+  if (baseline) {
+    // The same solve with another build (a checkout of an earlier commit, built), for a before/after ratio.
+    const b = timed(process.execPath, [join(baseline, 'dist/harness/cli/main.js'), 'solve', file, '--method', 'kstep', '--k', k, '--precision', precision, '--json']);
+    const bs = (JSON.parse(b.stdout) as { stats: Record<string, number>; error_bound: number });
+    console.log(`baseline ${baseline}: ${b.wall.toFixed(2)} s, peak RSS ${b.rssMB.toFixed(0)} MB, bound ${bs.error_bound.toExponential(2)}, ` +
+      `intervals ${bs.stats.intervals}, slow state-levels ${bs.stats.slowStateLevels}`);
+    baselineWall = b.wall;
+  }
   const solve = timed(process.execPath, ['dist/harness/cli/main.js', 'solve', file, '--method', 'kstep', '--k', k, '--precision', precision, '--json']);
+  if (baselineWall > 0) console.log(`(ratio baseline / this build, whole process: ${(baselineWall / solve.wall).toFixed(2)})`);
   const res = JSON.parse(solve.stdout) as { values: Record<string, number>; error_bound: number; stats: Record<string, number> };
   const st = res.stats;
   console.log(`kstep k = ${k} at ${precision} (whole process): ${solve.wall.toFixed(2)} s, peak RSS ${solve.rssMB.toFixed(0)} MB, ` +
     `bound ${res.error_bound.toExponential(2)}, intervals ${st.intervals}, slow state-levels ${st.slowStateLevels}, ` +
-    `halvings ${st.halvings}, solver seconds ${Number(st.seconds).toFixed(2)}`);
+    `halvings ${st.halvings}, rejected ${st.rejected}, shortcut state-levels ${st.shortcutStateLevels}, solver seconds ${Number(st.seconds).toFixed(2)}`);
   if (!process.argv.includes('--no-scipy')) {
     const out = join(dir, 'scipy.json');
     const py = execFileSync('python3', ['bench/kstep_game_scipy.py', file, out, rtol], { encoding: 'utf8', maxBuffer: 1 << 30 });

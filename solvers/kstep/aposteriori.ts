@@ -61,7 +61,7 @@ export function noteSingle(w: KstepWork, s: number, o: number): void {
  * The first sum keeps the cancellation that a sum of absolute values in τ loses (two levels that
  * switch action at nearby times differ little, although their coefficients in τ differ much).
  */
-export function notePiecewise(w: KstepWork, f: Piecewise, g: Piecewise, deg: number): void {
+export function supDifference(w: KstepWork, f: Piecewise, g: Piecewise, deg: number): number {
   const br = mergeBreaks([f.breaks, g.breaks]);
   const b = w.shiftBuf;
   const tail = gamma(2 * deg + 2) + 2 * UNIT_ROUNDOFF;
@@ -85,7 +85,7 @@ export function notePiecewise(w: KstepWork, f: Piecewise, g: Piecewise, deg: num
     const bound = acc + tail * crude;
     if (bound > sup) sup = bound;
   }
-  if (sup > w.dConst) w.dConst = sup;
+  return sup;
 }
 
 /** A(ε) = e^{2λε}·2λ·(Σ_i P_i ε^{i+1}/(i+1) + Qε), with the margin for its own rounding. */

@@ -136,15 +136,18 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     w.maxPieces = 1;
     w.pieceDec.clear();
     if (!runInterval(w, x, len, next)) return NaN;
-    const A = aposterioriBound(w, lambda, len);
+    const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
+    rho = roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss) + w.shortcutRound;
+    // States that took the shortcut (./shortcut.ts) add the rounding δ_{k−1} ≤ ρ/2 to their D.
+    const A = aposterioriBound(w, lambda, len) + (w.shortcutStates > 0 ? Math.exp(2 * lambda * len) * 2 * lambda * len * rho : 0);
     const L = localBound(lambda, len, k);
     return Math.min(A, L);
   };
+  let rho = 0;
   const commit = (t0: number, len: number, b: number): void => {
     trunc += b;
     if (b < localBound(lambda, len, k)) aposteriori++;
-    const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
-    round += roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss);
+    round += rho;
     maxPieces = Math.max(maxPieces, w.maxPieces);
     tieLoss += w.tieLoss;
     intervals++;
@@ -154,7 +157,9 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     next = tmp;
   };
   const capped = (len: number): string => `more than ${w.pieceCap} pieces in one state even on an interval of length ${len * unit}`;
-  const adaptive = opts.intervals === undefined && opts.adaptive !== false;
+  // The planted bug looseTie runs on the a-priori lengths by default: its unpaid loss per interval
+  // is what selftest must catch, and adaptive lengths (fewer intervals) would only hide it less often.
+  const adaptive = opts.intervals === undefined && (opts.adaptive ?? !(opts.looseTie !== undefined && opts.looseTie > 0));
   if (!adaptive) {
     const span = (t0: number, t1: number, depth: number): string | undefined => {
       const len = t1 - t0;
@@ -215,7 +220,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const stats = {
     intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
     truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
-    rejected, aposterioriIntervals: aposteriori,
+    rejected, aposterioriIntervals: aposteriori, shortcutStateLevels: w.shortcuts,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }

@@ -20,7 +20,8 @@ import type { CompiledModel } from '../../corpus/format/compile.js';
 import { absSum, gamma } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
-import { noteSingle, notePiecewise, resetDifference } from './aposteriori.js';
+import { noteSingle, resetDifference, supDifference } from './aposteriori.js';
+import { lastLevelShortcut, type Proxy } from './shortcut.js';
 
 export interface KstepWork {
   readonly m: CompiledModel;
@@ -84,6 +85,33 @@ export interface KstepWork {
   readonly pred: Int32Array;
   /** Largest dirtiness (0, 1, 2) among the successors of each state on the previous level. */
   readonly need: Uint8Array;
+  /** Largest exit rate of an action of an active state. */
+  readonly lam: number;
+  /** Majorant Σ_i levelDiff[i]·τ^i + levelDiffConst of |f^{k−1}_s − f^{k−2}_s| over all states (./shortcut.ts). */
+  readonly levelDiff: Float64Array;
+  levelDiffConst: number;
+  /** Level-k proxies of level k − 1 (./shortcut.ts), per interval. */
+  readonly proxies: Map<number, Proxy>;
+  readonly proxyQ: Float64Array;
+  readonly proxySlack: Float64Array;
+  scratchRound: number;
+  /** States of the last interval whose level k took the shortcut, and the largest rounding bound of their values. */
+  shortcutStates: number;
+  shortcutRound: number;
+  /** Over the whole solve: state-levels that took the shortcut. */
+  shortcuts: number;
+}
+
+function activeLambda(m: CompiledModel, active: Uint8Array): number {
+  let l = 0;
+  for (let s = 0; s < m.nStates; s++) if (active[s]) for (let a = m.actionStart[s]!; a < m.actionStart[s + 1]!; a++) l = Math.max(l, m.exitRate[a]!);
+  return l;
+}
+
+function maxActions(m: CompiledModel): number {
+  let n = 1;
+  for (let s = 0; s < m.nStates; s++) n = Math.max(n, m.actionStart[s + 1]! - m.actionStart[s]!);
+  return n;
 }
 
 /** Predecessor lists over states, built once per model. */
@@ -115,6 +143,9 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
     dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1), ...predecessors(m), need: new Uint8Array(S),
+    lam: activeLambda(m, active), levelDiff: new Float64Array(k + 1), levelDiffConst: 0, proxies: new Map(),
+    proxyQ: new Float64Array(maxActions(m) * k), proxySlack: new Float64Array(maxActions(m)), scratchRound: 0,
+    shortcutStates: 0, shortcutRound: 0, shortcuts: 0,
   };
 }
 
@@ -236,9 +267,14 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
   if (n > w.maxPieces) w.maxPieces = n;
   for (let i = 0; i < n; i++) w.coefNorm = Math.max(w.coefNorm, absSum(f.coef, i * PS, j, len));
   w.act[s] = -1;
+  if (j === k || j === k - 1) {
+    const prev = w.dPrev[s] === 2 ? w.pwPrev.get(s)! : previousSingle(w, s, x[s]!, len, j - 1);
+    const sup = supDifference(w, f, prev, j);
+    if (j === k) {
+      if (sup > w.dConst) w.dConst = sup;
+    } else if (sup > w.levelDiffConst) w.levelDiffConst = sup;
+  }
   if (j === k) {
-    const prev = w.dPrev[s] === 2 ? w.pwPrev.get(s)! : previousSingle(w, s, x[s]!, len);
-    notePiecewise(w, f, prev, k);
     if (nA > 1) {
       const lenOf = new Float64Array(nA);
       for (let i = 0; i < n; i++) lenOf[env.choice![i]!] += f.breaks[i + 1]! - f.breaks[i]!;
@@ -272,11 +308,11 @@ function slowState(w: KstepWork, s: number, j: number, len: number, x: Float64Ar
   return 0;
 }
 
-/** Level k − 1 of a single-polynomial state as a one-piece function (c_0 = x_s, c_i from C). */
-function previousSingle(w: KstepWork, s: number, xs: number, len: number): Piecewise {
+/** The previous level (degree deg) of a single-polynomial state as a one-piece function (c_0 = x_s, c_i from C). */
+function previousSingle(w: KstepWork, s: number, xs: number, len: number, deg: number): Piecewise {
   const c = new Float64Array(w.k + 1);
   c[0] = xs;
-  for (let i = 1; i < w.k; i++) c[i] = w.C[i]![s]!;
+  for (let i = 1; i <= deg; i++) c[i] = w.C[i]![s]!;
   return single(c, 0, w.k, w.k + 1, 0, len);
 }
 
@@ -319,6 +355,11 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
   w.nDirtyPrev = 0;
   w.pwPrev.clear();
   resetDifference(w);
+  w.levelDiff.fill(0);
+  w.levelDiffConst = 0;
+  w.proxies.clear();
+  w.shortcutStates = 0;
+  w.shortcutRound = 0;
   const nPend = { n: 0 };
   // coefMax[i] ≥ max_s |c_i(s)| of every level of this interval so far (an upper bound is all that
   // isTie's cheap test needs).
@@ -362,7 +403,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         for (let a = a0; a < a1; a++) accumulate(w, a, s, 0, j, x);
       }
       let best = 0;
-      if (dirty < 2 && nA === 2) {
+      if (dirty < 2 && nA === 2 && w.looseTie === 0) {
         // Two actions, the common case, without a call: the first order whose difference is beyond
         // isTie's cheap test decides, and when the other action's difference polynomial is ≤ 0 on
         // [0, len] by the crude range bound, nothing is charged. Anything else (a possible tie or
@@ -393,6 +434,15 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         }
         best = pick >= 0 ? pick : dominant(w, s, a0, nA, j, len, sense, x);
       } else if (dirty < 2 && nA > 1) best = dominant(w, s, a0, nA, j, len, owner[s]! < 0 ? -1 : 1, x);
+      if (dirty === 2 && last && k >= 2) {
+        const v = lastLevelShortcut(w, s, x, len);
+        if (v === v) {
+          out[s] = v < 0 ? 0 : v > 1 ? 1 : v;
+          w.shortcutStates++;
+          if (w.scratchRound > w.shortcutRound) w.shortcutRound = w.scratchRound;
+          continue;
+        }
+      }
       if (dirty === 2 || best < 0) {
         const v = slowState(w, s, j, len, x, nPend);
         if (v !== v) return false;
@@ -411,6 +461,14 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         if (nA > 1) w.dec[s] = a0 + best;
         noteSingle(w, s, o);
       } else if (dirty) {
+        if (j === k - 1) {
+          // Level k − 1 changed below its top coefficient: note |c^{k−1}_i − c^{k−2}_i| (./shortcut.ts).
+          for (let i = 1; i < j; i++) {
+            const d = R[o + i - 1]! / i - C[i]![s]!;
+            const ad = d < 0 ? -d : d;
+            if (ad > w.levelDiff[i]!) w.levelDiff[i] = ad;
+          }
+        }
         const pi = nPend.n++;
         w.pendS[pi] = s;
         for (let i = 0; i < j; i++) w.pendC[pi * k + i] = R[o + i]! / (i + 1);
@@ -419,7 +477,17 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         cOut![s] = R[o + j - 1]! / j;
       }
     }
-    if (last) break;
+    if (last) {
+      if (w.shortcutStates > 0) {
+        // D^k_s ≤ 2λ∫₀^σ (Σ_i P_i ρ^i + Q) for the states that took the shortcut (./shortcut.ts).
+        const z = 2 * w.lam * (1 + 1e-12);
+        const dPoly = w.dPoly;
+        for (let i = 1; i < k; i++) dPoly[i + 1] = Math.max(dPoly[i + 1]!, (z * w.levelDiff[i]!) / (i + 1));
+        dPoly[1] = Math.max(dPoly[1]!, z * w.levelDiffConst);
+        w.shortcuts += w.shortcutStates;
+      }
+      break;
+    }
     for (let p = 0; p < nPend.n; p++) {
       const s = w.pendS[p]!;
       for (let i = 1; i <= j; i++) {
@@ -431,6 +499,8 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
     }
     const mj = absMax(C[j]!);
     if (mj > w.coefMax[j]!) w.coefMax[j] = mj;
+    // The top coefficient is new at this level: |c^j_j − 0| ≤ max_s |c_j(s)| (stale entries only add).
+    if (j === k - 1 && mj > w.levelDiff[j]!) w.levelDiff[j] = mj;
     for (let i = 1; i <= j; i++) w.coefScale[i] = m.lambda * w.coefMax[i]!;
     // Dirtiness for the next level: each changed state marks its predecessors.
     let nd = 0;
