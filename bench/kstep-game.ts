@@ -132,17 +132,23 @@ function main(): void {
     const kk = Number(k);
     const w = makeWork(model, kk, active, x, 32);
     const o = new Float64Array(S);
-    const times: number[] = [];
-    for (let r = 0; r < 9; r++) {
+    // Interleaved (the machine is shared): each interval is timed beside k bare mat-vecs, and the
+    // median of the per-pair ratios is reported.
+    const ratios: number[] = [];
+    const passes: number[] = [];
+    runInterval(w, x, len, o);
+    for (let r = 0; r < 11; r++) {
       const t0 = performance.now();
       runInterval(w, x, len, o);
-      times.push(performance.now() - t0);
+      const t1 = performance.now();
+      const mv = matVecSeconds(model, kk) * 1000;
+      passes.push((t1 - t0) / kk);
+      ratios.push((t1 - t0) / kk / mv);
     }
-    times.sort((p, q) => p - q);
-    const mv = matVecSeconds(model, 15);
-    const pass = times[4]! / 1000 / kk;
-    console.log(`level pass (interval ${len.toExponential(3)}, median of 9): ${(pass * 1e3).toFixed(2)} ms = ${(pass / mv).toFixed(2)}× ` +
-      `a bare CSR mat-vec (${(mv * 1e3).toFixed(2)} ms)`);
+    ratios.sort((p, q) => p - q);
+    passes.sort((p, q) => p - q);
+    console.log(`level pass (interval λε = ${(len * model.lambda).toExponential(2)}, median of 11): ${passes[5]!.toFixed(2)} ms = ` +
+      `${ratios[5]!.toFixed(2)}× a bare CSR mat-vec over the same matrix (timed beside it)`);
   }
   if (!process.argv.includes('--keep')) rmSync(dir, { recursive: true, force: true });
 }

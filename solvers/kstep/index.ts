@@ -9,7 +9,12 @@
  * with O(ε^{k+1}) error per interval and O((T/π)^{1/k}) intervals for precision π, is from memory:
  * Fearnley, Rabe, Schewe & Zhang, "Efficient approximation of optimal control for continuous-time
  * Markov games" (FSTTCS 2011; Information and Computation 2016). The error bound used here is derived
- * in ./bound.ts: per interval (2λε)^{k+1}/(2·(k+1)!), summed over intervals, plus a rounding allowance.
+ * in ./bound.ts: per interval (2λε)^{k+1}/(2·(k+1)!), summed over intervals, plus a rounding allowance;
+ * or, where smaller, the a-posteriori bound e^{2λε}·2λ∫‖f^k − f^{k−1}‖ of ./aposteriori.ts, from
+ * which the interval lengths adapt (an interval is accepted when the truncation spent so far is within
+ * the budget's share of the time covered; the a-priori length always is). At level k, a state whose
+ * successors are piecewise but whose choice is proved fixed takes its value from integrals
+ * (./shortcut.ts).
  *
  * Guarantee: |values_s − v_s(T)| ≤ errorBound ≤ precision in every state s.
  * Refuses: k not an integer in 1 … 8, precision not in (0, ∞), a choice state without an owner, more

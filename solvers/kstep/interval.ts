@@ -21,7 +21,7 @@ import { absSum, gamma } from '../piecewise/poly.js';
 import { envelope, evaluate, integrate, linearCombination, pieceCount, single, type Piecewise } from '../piecewise/piecewise.js';
 import { realRoots } from '../piecewise/roots.js';
 import { noteSingle, resetDifference, supDifference } from './aposteriori.js';
-import { lastLevelShortcut, type Proxy } from './shortcut.js';
+import { lastLevelShortcut } from './shortcut.js';
 
 export interface KstepWork {
   readonly m: CompiledModel;
@@ -90,8 +90,13 @@ export interface KstepWork {
   /** Majorant Σ_i levelDiff[i]·τ^i + levelDiffConst of |f^{k−1}_s − f^{k−2}_s| over all states (./shortcut.ts). */
   readonly levelDiff: Float64Array;
   levelDiffConst: number;
-  /** Level-k proxies of level k − 1 (./shortcut.ts), per interval. */
-  readonly proxies: Map<number, Proxy>;
+  /** Level-k proxies of level k − 1 (./shortcut.ts): current when proxyStamp[s] = stamp. */
+  readonly proxyP: Float64Array;
+  readonly proxyEta: Float64Array;
+  readonly proxyI: Float64Array;
+  readonly proxyErr: Float64Array;
+  readonly proxyStamp: Int32Array;
+  stamp: number;
   readonly proxyQ: Float64Array;
   readonly proxySlack: Float64Array;
   scratchRound: number;
@@ -143,7 +148,8 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
     dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1), ...predecessors(m), need: new Uint8Array(S),
-    lam: activeLambda(m, active), levelDiff: new Float64Array(k + 1), levelDiffConst: 0, proxies: new Map(),
+    lam: activeLambda(m, active), levelDiff: new Float64Array(k + 1), levelDiffConst: 0, proxyP: new Float64Array(S * k), proxyEta: new Float64Array(S), proxyI: new Float64Array(S),
+    proxyErr: new Float64Array(S), proxyStamp: new Int32Array(S), stamp: 0,
     proxyQ: new Float64Array(maxActions(m) * k), proxySlack: new Float64Array(maxActions(m)), scratchRound: 0,
     shortcutStates: 0, shortcutRound: 0, shortcuts: 0,
   };
@@ -357,7 +363,7 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
   resetDifference(w);
   w.levelDiff.fill(0);
   w.levelDiffConst = 0;
-  w.proxies.clear();
+  w.stamp++;
   w.shortcutStates = 0;
   w.shortcutRound = 0;
   const nPend = { n: 0 };

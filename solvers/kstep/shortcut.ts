@@ -34,14 +34,6 @@ import type { Piecewise } from '../piecewise/piecewise.js';
 import { gamma } from '../piecewise/poly.js';
 import type { KstepWork } from './interval.js';
 
-/** Proxy polynomial (degree k − 1, coefficients p), its distance η and the integral I of a state. */
-export interface Proxy {
-  readonly p: Float64Array;
-  readonly eta: number;
-  readonly I: number;
-  readonly errI: number;
-}
-
 /** Σ_pieces ∫ of a piecewise polynomial of degree deg over [0, len], with its rounding bound. */
 function integral(f: Piecewise, deg: number, g: number): { I: number; err: number } {
   let I = 0;
@@ -69,19 +61,23 @@ function integral(f: Piecewise, deg: number, g: number): { I: number; err: numbe
   return { I, err: g * err * (1 + 1e-12) };
 }
 
-/** The proxy of state t at level k − 1 (cached per interval in w.proxies). */
-export function proxyOf(w: KstepWork, t: number, x: Float64Array, len: number): Proxy {
-  const hit = w.proxies.get(t);
-  if (hit) return hit;
+/**
+ * The proxy of state t at level k − 1, computed once per interval into typed arrays (w.proxyStamp[t]
+ * = w.stamp marks it current): coefficients at w.proxyP[t·k …], η, I and the rounding of I.
+ */
+export function proxyOf(w: KstepWork, t: number, x: Float64Array, len: number): void {
+  if (w.proxyStamp[t] === w.stamp) return;
+  w.proxyStamp[t] = w.stamp;
   const k = w.k;
   const deg = k - 1;
   const g = gamma(2 * k + 4);
-  let proxy: Proxy;
+  const P = w.proxyP;
+  const o = t * k;
   if (w.dPrev[t] === 2) {
     const f = w.pwPrev.get(t)!;
     let q = 0;
     while (q + 2 < f.breaks.length && f.breaks[q + 1]! <= 0.5 * len) q++;
-    const p = f.coef.slice(q * f.stride, q * f.stride + k);
+    for (let i = 0; i < k; i++) P[o + i] = f.coef[q * f.stride + i]!;
     const b = w.shiftBuf;
     const tail = gamma(2 * deg + 2) + 2 * 2 ** -53;
     let eta = 0;
@@ -93,7 +89,7 @@ export function proxyOf(w: KstepWork, t: number, x: Float64Array, len: number): 
       const h = 0.5 * (hi - lo);
       let crude = 0;
       for (let i = deg; i >= 0; i--) {
-        const d = f.coef[r * f.stride + i]! - p[i]!;
+        const d = f.coef[r * f.stride + i]! - P[o + i]!;
         b[i] = d;
         crude = crude * hi + (d < 0 ? -d : d);
       }
@@ -103,22 +99,23 @@ export function proxyOf(w: KstepWork, t: number, x: Float64Array, len: number): 
       eta = Math.max(eta, (acc + tail * crude) * (1 + 1e-12));
     }
     const { I, err } = integral(f, deg, g);
-    proxy = { p, eta, I, errI: err };
+    w.proxyEta[t] = eta;
+    w.proxyI[t] = I;
+    w.proxyErr[t] = err;
   } else {
-    const p = new Float64Array(k);
-    p[0] = x[t]!;
-    for (let i = 1; i < k; i++) p[i] = w.C[i]![t]!;
+    P[o] = x[t]!;
+    for (let i = 1; i < k; i++) P[o + i] = w.C[i]![t]!;
     let I = 0;
     let A = 0;
     for (let i = deg; i >= 0; i--) {
-      const c = p[i]! / (i + 1);
+      const c = P[o + i]! / (i + 1);
       I = I * len + c;
       A = A * len + (c < 0 ? -c : c);
     }
-    proxy = { p, eta: 0, I: I * len, errI: g * A * len * (1 + 1e-12) };
+    w.proxyEta[t] = 0;
+    w.proxyI[t] = I * len;
+    w.proxyErr[t] = g * A * len * (1 + 1e-12);
   }
-  w.proxies.set(t, proxy);
-  return proxy;
 }
 
 /**
@@ -133,23 +130,32 @@ export function lastLevelShortcut(w: KstepWork, s: number, x: Float64Array, len:
   const sense = m.owner[s]! < 0 ? -1 : 1;
   const q = w.proxyQ;
   const slack = w.proxySlack;
-  const own = proxyOf(w, s, x, len);
+  const P = w.proxyP;
+  proxyOf(w, s, x, len);
+  const os = s * k;
+  const etaS = w.proxyEta[s]!;
   // q_a (sense-adjusted) and its slack, per action.
   for (let a = 0; a < nA; a++) {
     const act = a0 + a;
     const o = a * k;
-    for (let i = 0; i < k; i++) q[o + i] = -exitRate[act]! * own.p[i]!;
-    let sl = exitRate[act]! * own.eta;
-    let mag = 0;
-    for (let i = 0; i < k; i++) mag += Math.abs(exitRate[act]! * own.p[i]!) * len ** i;
+    const e = exitRate[act]!;
+    for (let i = 0; i < k; i++) q[o + i] = -e * P[os + i]!;
+    let sl = e * etaS;
     for (let t = rowStart[act]!; t < rowStart[act + 1]!; t++) {
-      const pr = proxyOf(w, col[t]!, x, len);
+      const u = col[t]!;
+      proxyOf(w, u, x, len);
       const r = rate[t]!;
-      for (let i = 0; i < k; i++) {
-        q[o + i] += r * pr.p[i]!;
-        mag += Math.abs(r * pr.p[i]!) * len ** i;
-      }
-      sl += r * pr.eta;
+      for (let i = 0; i < k; i++) q[o + i] += r * P[u * k + i]!;
+      sl += r * w.proxyEta[u]!;
+    }
+    // Σ over the sum's terms of |term|·len^i (for the rounding of the coefficient sums).
+    let mag = 0;
+    let p = 1;
+    for (let i = 0; i < k; i++) {
+      let m = e * Math.abs(P[os + i]!);
+      for (let t = rowStart[act]!; t < rowStart[act + 1]!; t++) m += rate[t]! * Math.abs(P[col[t]! * k + i]!);
+      mag += m * p;
+      p *= len;
     }
     for (let i = 0; i < k; i++) q[o + i] *= sense;
     slack[a] = sl + gamma(2 * (rowStart[act + 1]! - rowStart[act]!) + 2 * k + 4) * mag * (1 + 1e-12);
@@ -185,16 +191,17 @@ export function lastLevelShortcut(w: KstepWork, s: number, x: Float64Array, len:
   let mag = 0;
   let errI = 0;
   for (let t = rowStart[act]!; t < rowStart[act + 1]!; t++) {
-    const pr = proxyOf(w, col[t]!, x, len);
-    acc += rate[t]! * pr.I;
-    mag += rate[t]! * Math.abs(pr.I);
-    errI += rate[t]! * pr.errI;
+    const u = col[t]!;
+    acc += rate[t]! * w.proxyI[u]!;
+    mag += rate[t]! * Math.abs(w.proxyI[u]!);
+    errI += rate[t]! * w.proxyErr[u]!;
   }
-  acc -= exitRate[act]! * own.I;
-  mag += exitRate[act]! * Math.abs(own.I);
-  errI += exitRate[act]! * own.errI;
+  acc -= exitRate[act]! * w.proxyI[s]!;
+  mag += exitRate[act]! * Math.abs(w.proxyI[s]!);
+  errI += exitRate[act]! * w.proxyErr[s]!;
   const n = rowStart[act + 1]! - rowStart[act]!;
-  w.scratchRound = ((gamma(2 * n + 4) * mag + errI) * (1 + 1e-9));
+  // The final x + acc adds one rounding of a number in [−1, 2]: 2u.
+  w.scratchRound = (gamma(2 * n + 4) * mag + errI + 2 ** -52) * (1 + 1e-9);
   if (nA > 1) w.dec[s] = act;
   return x[s]! + acc;
 }
