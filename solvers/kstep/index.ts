@@ -225,7 +225,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const stats = {
     intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
     truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
-    rejected, aposterioriIntervals: aposteriori, shortcutStateLevels: w.shortcuts,
+    rejected, aposterioriIntervals: aposteriori, shortcutStateLevels: w.shortcuts, skippedActionLevels: w.skippedRows,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }

@@ -85,6 +85,8 @@ export interface KstepWork {
   readonly pred: Int32Array;
   /** Largest dirtiness (0, 1, 2) among the successors of each state on the previous level. */
   readonly need: Uint8Array;
+  /** Per action, how many of its coefficients r_{a,0 …} are current (see runInterval's two-action skip). */
+  readonly valid: Uint8Array;
   /** Largest exit rate of an action of an active state. */
   readonly lam: number;
   /** Majorant Σ_i levelDiff[i]·τ^i + levelDiffConst of |f^{k−1}_s − f^{k−2}_s| over all states (./shortcut.ts). */
@@ -103,8 +105,9 @@ export interface KstepWork {
   /** States of the last interval whose level k took the shortcut, and the largest rounding bound of their values. */
   shortcutStates: number;
   shortcutRound: number;
-  /** Over the whole solve: state-levels that took the shortcut. */
+  /** Over the whole solve: state-levels that took the shortcut; dominated actions not computed. */
   shortcuts: number;
+  skippedRows: number;
 }
 
 function activeLambda(m: CompiledModel, active: Uint8Array): number {
@@ -148,10 +151,10 @@ export function makeWork(m: CompiledModel, k: number, active: Uint8Array, _x: Fl
     pwPrev: new Map(), pwCur: new Map(), act: new Int32Array(S), diff: new Float64Array(k + 1), dec: new Int32Array(S).fill(-1), pieceDec: new Map(),
     pieceCap, looseTie, coefScale: new Float64Array(k), coefMax: new Float64Array(k), gammaCoef: gamma(2 * rowLen(m)), tieLoss: 0, maxPieces: 1, coefNorm: 1, slowStates: 0, dirtyStates: 0,
     dPoly: new Float64Array(k + 1), dConst: 0, shiftBuf: new Float64Array(k + 1), ...predecessors(m), need: new Uint8Array(S),
-    lam: activeLambda(m, active), levelDiff: new Float64Array(k + 1), levelDiffConst: 0, proxyP: new Float64Array(S * k), proxyEta: new Float64Array(S), proxyI: new Float64Array(S),
+    valid: new Uint8Array(m.nActions), lam: activeLambda(m, active), levelDiff: new Float64Array(k + 1), levelDiffConst: 0, proxyP: new Float64Array(S * k), proxyEta: new Float64Array(S), proxyI: new Float64Array(S),
     proxyErr: new Float64Array(S), proxyStamp: new Int32Array(S), stamp: 0,
     proxyQ: new Float64Array(maxActions(m) * k), proxySlack: new Float64Array(maxActions(m)), scratchRound: 0,
-    shortcutStates: 0, shortcutRound: 0, shortcuts: 0,
+    shortcutStates: 0, shortcutRound: 0, shortcuts: 0, skippedRows: 0,
   };
 }
 
@@ -353,7 +356,7 @@ function absMax(c: Float64Array): number {
  * (work proportional to the changes, not to the transitions).
  */
 export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Float64Array): boolean {
-  const { m, k, active, R, C, need, predStart, pred, gammaCoef, coefMax } = w;
+  const { m, k, active, R, C, need, predStart, pred, gammaCoef, coefMax, valid } = w;
   const { actionStart, owner, rowStart, col, rate, exitRate } = m;
   const S = m.nStates;
   w.dPrev.fill(0);
@@ -396,20 +399,61 @@ export function runInterval(w: KstepWork, x: Float64Array, len: number, out: Flo
         dirty = dPrev[s]!;
         if (need[s]! > dirty) dirty = need[s]!;
       }
-      if (dirty === 0) {
+      let skipped = false;
+      if (dirty === 0 && nA === 2 && j >= 2 && w.looseTie === 0 && w.act[s]! >= 0) {
+        // Two actions, clean: the new coefficient of the action that was best, then a range bound
+        // on the other's difference polynomial, with each coefficient not computed bounded by
+        // |r_{b,i}| ≤ (Σ_t R_t + E_b)·max_s|c_i(s)| = 2E_b·coefMax[i] (times 1 + 2γ for rounding):
+        //   d(τ) ≤ d_0 + Σ_{i≥1} |d_i| τ^i,  |d_i| ≤ 2E_b·coefMax[i] + |r_{best,i}| where r_{b,i} is unknown.
+        // When that is ≤ 0 on [0, len] the other action is dominated throughout: it is not computed.
+        const B = a0 + w.act[s]!;
+        const O = B === a0 ? a0 + 1 : a0;
+        if (valid[B]! < top) accumulate(w, B, s, valid[B]!, top, x);
+        let acc = 0;
+        for (let t = rowStart[B]!, t1 = rowStart[B + 1]!; t < t1; t++) acc += rate[t]! * cj[col[t]!]!;
+        R[B * k + top] = acc - exitRate[B]! * cj[s]!;
+        valid[B] = j;
+        const sense = owner[s]! < 0 ? -1 : 1;
+        const d0 = sense * (R[O * k]! - R[B * k]!);
+        if (d0 < 0) {
+          const vO = valid[O]!;
+          const eO = 2 * exitRate[O]! * (1 + 2 * gammaCoef);
+          let pos = 0;
+          let p = 1;
+          for (let i = 1; i < j; i++) {
+            p *= len;
+            const rb = R[B * k + i]!;
+            const d = i < vO ? R[O * k + i]! - rb : eO * coefMax[i]! + (rb < 0 ? -rb : rb);
+            pos += (d < 0 ? -d : d) * p;
+          }
+          skipped = pos * (1 + 1e-12) <= -d0 * (1 - 1e-12);
+        }
+        if (!skipped) {
+          accumulate(w, O, s, valid[O]!, j, x);
+          valid[O] = j;
+        }
+      } else if (dirty === 0) {
         // The new coefficient r_{a,j−1} = Σ R(s,a,s')·c_{j−1}(s') − E(s,a)·c_{j−1}(s) of every action.
         const cs = cj[s]!;
         for (let a = a0; a < a1; a++) {
+          if (valid[a]! < top) accumulate(w, a, s, valid[a]!, top, x);
           let acc = 0;
           for (let t = rowStart[a]!, t1 = rowStart[a + 1]!; t < t1; t++) acc += rate[t]! * cj[col[t]!]!;
           R[a * k + top] = acc - exitRate[a]! * cs;
+          valid[a] = j;
         }
       } else if (dirty === 1) {
         w.dirtyStates++;
-        for (let a = a0; a < a1; a++) accumulate(w, a, s, 0, j, x);
+        for (let a = a0; a < a1; a++) {
+          accumulate(w, a, s, 0, j, x);
+          valid[a] = j;
+        }
       }
       let best = 0;
-      if (dirty < 2 && nA === 2 && w.looseTie === 0) {
+      if (skipped) {
+        w.skippedRows++;
+        best = w.act[s]!;
+      } else if (dirty < 2 && nA === 2 && w.looseTie === 0) {
         // Two actions, the common case, without a call: the first order whose difference is beyond
         // isTie's cheap test decides, and when the other action's difference polynomial is ≤ 0 on
         // [0, len] by the crude range bound, nothing is charged. Anything else (a possible tie or
