@@ -110,3 +110,42 @@ describe('kstep a-posteriori bound (A)', () => {
       }
   });
 });
+
+describe('kstep last-level shortcut', () => {
+  it('switches spread to predecessors (race chains with fan-in): values within the bound of the optimal oracle, shortcut used', () => {
+    // A switching race state r (max: A straight to the goal at rate μ, or B through m at ν, ν′) with
+    // predecessors p_i that reach r at different rates, and a pre-predecessor q (min between p_0 and
+    // p_1): at level k the predecessors see a piecewise successor while their own choice is fixed.
+    const arb = fc.record({
+      mu: fc.double({ min: 0.3, max: 2, noNaN: true }), nu: fc.double({ min: 2, max: 6, noNaN: true }), nu2: fc.double({ min: 2, max: 6, noNaN: true }),
+      p: fc.array(fc.double({ min: 0.2, max: 3, noNaN: true }), { minLength: 2, maxLength: 3 }), T: fc.double({ min: 0.3, max: 2, noNaN: true }),
+    });
+    let compared = 0;
+    let shortcut = 0;
+    fc.assert(
+      fc.property(arb, fc.integer({ min: 2, max: 4 }), fc.integer({ min: 1, max: 4 }), (a, k, n) => {
+        const r = (x: number) => Number(x.toPrecision(4));
+        const states: NonNullable<ModelObject['states']> = {
+          r: { owner: 'max', actions: { A: { goal: r(a.mu) }, B: { m: r(a.nu) } } },
+          m: { actions: { go: { goal: r(a.nu2) } } },
+          q: { owner: 'min', actions: { x: { p0: 1.5 }, y: { p1: 0.9, fail: 0.4 } } },
+          goal: {}, fail: {},
+        };
+        a.p.forEach((rate, i) => (states[`p${i}`] = { actions: { go: { r: r(rate), fail: 0.1 * (i + 1) } } }));
+        const model = buildModel({ name: 'fan-in', time_bound: Number(a.T.toPrecision(3)), goal: ['goal'], states });
+        const m = compile(model);
+        const ref = solveOracle(model, { digits: 14 });
+        if (ref.kind !== 'solved') return;
+        compared++;
+        for (const o of [solveKstep(m, { precision: 1e-8, k }), solveKstep(m, { precision: 1e6, k, intervals: n, pieceCap: 64 })]) {
+          if (o.kind !== 'solved') continue;
+          if (o.stats.shortcutStateLevels! > 0) shortcut++;
+          for (let s = 0; s < m.nStates; s++) expect(Math.abs(o.values[s]! - ref.values[s]!)).toBeLessThanOrEqual(o.errorBound + ref.errorBound);
+        }
+      }),
+      { numRuns: 30, seed: 1618 },
+    );
+    expect(compared).toBeGreaterThan(20);
+    expect(shortcut).toBeGreaterThan(10);
+  });
+});
