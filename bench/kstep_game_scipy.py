@@ -2,7 +2,10 @@
 integrated by scipy's DOP853 (Dormand-Prince 8(5,3); Hairer, Norsett & Wanner, Solving Ordinary
 Differential Equations I, 1993). No error guarantee: rtol and atol are local error targets.
 
-    python3 bench/kstep_game_scipy.py MODEL.json OUT.json [rtol]
+    python3 bench/kstep_game_scipy.py MODEL.json OUT.json [rtol] [--fixed]
+
+--fixed: every state takes its first action throughout (a CTMC, a smooth right-hand side), as a
+diagnostic of how much of DOP853's work the kinks of the max/min cost (step rejections at switches).
 
 With t the time left, v(0) = [s in G] and dv_s/dt = opt_a sum_s' R(s,a,s') (v_s' - v_s), goal states
 frozen (mode within). Prints {"seconds": ..., "nfev": ...} (the integration alone, loading and
@@ -21,6 +24,7 @@ from scipy.sparse import csr_matrix
 def main() -> None:
     model_path, out_path = sys.argv[1], sys.argv[2]
     rtol = float(sys.argv[3]) if len(sys.argv) > 3 else 1e-12
+    fixed = '--fixed' in sys.argv
     with open(model_path) as f:
         m = json.load(f)
     if m.get('goal_mode', 'within') != 'within':
@@ -68,7 +72,7 @@ def main() -> None:
 
     def rhs(_t: float, v: np.ndarray) -> np.ndarray:
         best = np.full(S, -np.inf)
-        for q, (R, E) in enumerate(mats):
+        for q, (R, E) in enumerate(mats[:1] if fixed else mats):
             d = sign * (R @ v - E * v)
             best = np.where(has[q], np.maximum(best, d), best)
         out = sign * best
