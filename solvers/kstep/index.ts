@@ -9,7 +9,12 @@
  * with O(ε^{k+1}) error per interval and O((T/π)^{1/k}) intervals for precision π, is from memory:
  * Fearnley, Rabe, Schewe & Zhang, "Efficient approximation of optimal control for continuous-time
  * Markov games" (FSTTCS 2011; Information and Computation 2016). The error bound used here is derived
- * in ./bound.ts: per interval (2λε)^{k+1}/(2·(k+1)!), summed over intervals, plus a rounding allowance.
+ * in ./bound.ts: per interval (2λε)^{k+1}/(2·(k+1)!), summed over intervals, plus a rounding allowance;
+ * or, where smaller, the a-posteriori bound e^{2λε}·2λ∫‖f^k − f^{k−1}‖ of ./aposteriori.ts, from
+ * which the interval lengths adapt (an interval is accepted when the truncation spent so far is within
+ * the budget's share of the time covered; the a-priori length always is). At level k, a state whose
+ * successors are piecewise but whose choice is proved fixed takes its value from integrals
+ * (./shortcut.ts).
  *
  * Guarantee: |values_s − v_s(T)| ≤ errorBound ≤ precision in every state s.
  * Refuses: k not an integer in 1 … 8, precision not in (0, ∞), a choice state without an owner, more
@@ -23,6 +28,7 @@
 import type { CompiledModel } from '../../corpus/format/compile.js';
 import type { Outcome, RefusalCode } from '../../corpus/format/result.js';
 import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
+import { aposterioriBound } from './aposteriori.js';
 import { chooseEpsilon, inputBound, localBound, roundingBound, singleCoefNorm } from './bound.js';
 import { scaleTime } from '../shared/scale.js';
 import { makeWork, runInterval, type KstepWork } from './interval.js';
@@ -39,6 +45,9 @@ export interface KstepOptions {
   readonly intervals?: number;
   /** Receives the level-k functions of every interval, for an a-posteriori certificate (../shared/dense.ts). */
   readonly dense?: DenseSink;
+  /** Lengths adapted interval by interval from the a-posteriori bound (default true; ignored, i.e.
+   *  false, when `intervals` is given). With false, every interval has the a-priori length ε₀. */
+  readonly adaptive?: boolean;
   /** Planted bug for `selftest` (variant:loose-tie) only: a tie tolerance the bound does not pay for. */
   readonly looseTie?: number;
 }
@@ -110,6 +119,12 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
     return refuse(`precision ${precision} with k = ${k} needs ${N} intervals (λT = ${lambda * T}); the limit is ${maxIntervals} intervals and 4e10 updates`, 'work-cap');
 
   // --- the intervals -------------------------------------------------------------------------
+  // Each interval's truncation term is min(L, A): the a-priori bound (L) of ./bound.ts or the
+  // a-posteriori bound (A) of ./aposteriori.ts, both valid beside the rounding term ρ. With fixed
+  // lengths (option `intervals`, or `adaptive: false`) the lengths are T/N. Otherwise lengths adapt:
+  // an interval [t0, t1] is accepted when the truncation spent so far stays within budget·t1/T;
+  // one of length ≤ ε₀ (the a-priori length) always is, since then L ≤ budget·len/T. A rejected one
+  // is run again shorter (never below ε₀); the next length aims A at 0.8·budget·len/T.
   const w = makeWork(m, k, active, x0, opts.pieceCap ?? 32, opts.looseTie ?? 0);
   if (opts.dense) {
     w.levelK = { coef: new Float64Array((k + 1) * S), pieces: new Map() };
@@ -121,40 +136,95 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   let round = 0;
   let intervals = 0;
   let halvings = 0;
+  let rejected = 0;
   let maxPieces = 1;
   let tieLoss = 0;
+  let aposteriori = 0;
   const rec = new ChoiceRecorder(m, T, unit);
-  const span = (t0: number, t1: number, depth: number): string | undefined => {
-    const len = t1 - t0;
+  /** Runs [t0, t0 + len]; the truncation term, or NaN when the piece cap is exceeded. */
+  const attempt = (len: number): number => {
     w.coefNorm = 1;
     w.tieLoss = 0;
     w.maxPieces = 1;
     w.pieceDec.clear();
-    if (runInterval(w, x, len, next)) {
-      trunc += localBound(lambda, len, k);
-      const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
-      round += roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss);
-      maxPieces = Math.max(maxPieces, w.maxPieces);
-      tieLoss += w.tieLoss;
-      intervals++;
-      rec.record(w, t0);
-      if (opts.dense) emitPieces(opts.dense, len, w.levelK!.coef, w.levelK!.pieces, k);
-      const tmp = x;
-      x = next;
-      next = tmp;
-      return undefined;
-    }
-    if (depth >= 10) return `more than ${w.pieceCap} pieces in one state even on an interval of length ${len}`;
-    halvings++;
-    const mid = t0 + 0.5 * len;
-    return span(t0, mid, depth + 1) ?? span(mid, t1, depth + 1);
+    if (!runInterval(w, x, len, next)) return NaN;
+    const C = Math.max(w.coefNorm, singleCoefNorm(lambda, len, k, rowLen));
+    rho = roundingBound(lambda, len, k, rowLen, C, w.maxPieces, w.tieLoss) + w.shortcutRound;
+    // States that took the shortcut (./shortcut.ts) add the rounding δ_{k−1} ≤ ρ/2 to their D.
+    const A = aposterioriBound(w, lambda, len) + (w.shortcutStates > 0 ? Math.exp(2 * lambda * len) * 2 * lambda * len * rho : 0);
+    const L = localBound(lambda, len, k);
+    return Math.min(A, L);
   };
-  for (let i = 0; i < N; i++) {
-    const t0 = i * eps;
-    const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
-    if (!(t1 > t0)) continue;
-    const why = span(t0, t1, 0);
-    if (why) return refuse(why, 'work-cap');
+  let rho = 0;
+  const commit = (t0: number, len: number, b: number): void => {
+    trunc += b;
+    if (b < localBound(lambda, len, k)) aposteriori++;
+    round += rho;
+    maxPieces = Math.max(maxPieces, w.maxPieces);
+    tieLoss += w.tieLoss;
+    intervals++;
+    rec.record(w, t0);
+    if (opts.dense) emitPieces(opts.dense, len, w.levelK!.coef, w.levelK!.pieces, k);
+    const tmp = x;
+    x = next;
+    next = tmp;
+  };
+  const capped = (len: number): string => `more than ${w.pieceCap} pieces in one state even on an interval of length ${len * unit}`;
+  // The planted bug looseTie runs on the a-priori lengths by default: its unpaid loss per interval
+  // is what selftest must catch, and adaptive lengths (fewer intervals) would only hide it less often.
+  const adaptive = opts.intervals === undefined && (opts.adaptive ?? !(opts.looseTie !== undefined && opts.looseTie > 0));
+  if (!adaptive) {
+    const span = (t0: number, t1: number, depth: number): string | undefined => {
+      const len = t1 - t0;
+      const b = attempt(len);
+      if (b === b) {
+        commit(t0, len, b);
+        return undefined;
+      }
+      if (depth >= 10) return capped(len);
+      halvings++;
+      const mid = t0 + 0.5 * len;
+      return span(t0, mid, depth + 1) ?? span(mid, t1, depth + 1);
+    };
+    for (let i = 0; i < N; i++) {
+      const t0 = i * eps;
+      const t1 = i + 1 === N ? T : Math.min(T, (i + 1) * eps);
+      if (!(t1 > t0)) continue;
+      const why = span(t0, t1, 0);
+      if (why) return refuse(why, 'work-cap');
+    }
+  } else {
+    const rate = budget / T;
+    const eps0 = eps;
+    const epsMax = Math.max(eps0, 1 / lambda);
+    const floor = eps0 * 2 ** -10;
+    let t0 = 0;
+    let len = eps0;
+    let attempts = 0;
+    while (t0 < T) {
+      if (++attempts > 2048 * N + 1000) return refuse(`more than ${attempts} interval attempts (piece cap and halvings)`, 'work-cap');
+      // The last interval ends exactly at T; rather than leave a sliver, the rest is cut in halves.
+      const rest = T - t0;
+      const l = rest <= len ? rest : rest < 1.5 * len ? 0.5 * rest : len;
+      const b = attempt(l);
+      if (b !== b) {
+        halvings++;
+        if (0.5 * l < floor) return refuse(capped(l), 'work-cap');
+        len = 0.5 * l;
+        continue;
+      }
+      const t1 = l === rest ? T : t0 + l;
+      const allowed = rate * t1;
+      const aim = b > 0 ? Math.pow((0.8 * rate * l) / b, 1 / k) : 4;
+      if (l > eps0 && trunc + b > allowed) {
+        rejected++;
+        len = Math.max(eps0, l * Math.min(0.9, aim));
+        continue;
+      }
+      commit(t0, l, b);
+      t0 = t1;
+      len = Math.min(epsMax, Math.max(eps0, l * Math.min(2, Math.max(0.5, aim))));
+    }
   }
   // Summing the bounds in floating point: a relative margin of 1e-9 covers its rounding.
   const errorBound = (trunc + round + inputBound(lambda * T) + scaled.flushBound) * (1 + 1e-9);
@@ -163,6 +233,7 @@ export function solveKstep(model: CompiledModel, opts: KstepOptions): Outcome {
   const stats = {
     intervals, maxPieces, seconds: (performance.now() - started) / 1000, lambda: lambda / unit, epsilon: eps * unit,
     truncationBound: trunc, roundingBound: round, tieLoss, slowStateLevels: w.slowStates, dirtyStateLevels: w.dirtyStates, halvings,
+    rejected, aposterioriIntervals: aposteriori, shortcutStateLevels: w.shortcuts, skippedActionLevels: w.skippedRows,
   };
   return { kind: 'solved', method: 'kstep', params, values: x, errorBound, scheduler: { choices: rec.finish() }, stats };
 }
@@ -178,21 +249,21 @@ function constantChoices(m: CompiledModel): Record<string, Segment[]> {
 class ChoiceRecorder {
   private readonly cur: Int32Array;
   private readonly segs = new Map<number, Segment[]>();
-  private readonly owned: number[] = [];
+  private readonly owned: Int32Array;
   /** T and times in scaled units; `unit` converts them back (elapsed time = (T − t)·unit). */
   constructor(private readonly m: CompiledModel, private readonly T: number, private readonly unit: number) {
     this.cur = new Int32Array(m.nStates).fill(-1);
-    for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) this.owned.push(s);
+    const owned: number[] = [];
+    for (let s = 0; s < m.nStates; s++) if (m.owner[s] !== 0) owned.push(s);
+    this.owned = Int32Array.from(owned);
   }
   record(w: KstepWork, t0: number): void {
+    const inside = w.pieceDec.size > 0;
     for (const s of this.owned) {
-      const inside = w.pieceDec.get(s);
-      if (inside) {
-        // The decision changes inside the interval: switch at the envelope's breakpoints.
-        for (let i = 0; i < inside.tau.length; i++) this.step(s, inside.action[i]!, t0 + inside.tau[i]!);
-      } else {
-        this.step(s, w.dec[s]!, t0);
-      }
+      // The decision changes inside the interval: switch at the envelope's breakpoints.
+      const pieces = inside ? w.pieceDec.get(s) : undefined;
+      if (pieces) for (let i = 0; i < pieces.tau.length; i++) this.step(s, pieces.action[i]!, t0 + pieces.tau[i]!);
+      else if (w.dec[s] !== this.cur[s]) this.step(s, w.dec[s]!, t0);
     }
   }
   /** From time left `t` on, state s takes global action d (the earlier action holds below t). */
