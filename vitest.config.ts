@@ -1,3 +1,4 @@
+import { availableParallelism } from 'node:os';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
@@ -8,5 +9,8 @@ export default defineConfig({
     testTimeout: 30 * 60_000,
     hookTimeout: 30 * 60_000,
     pool: 'forks',
+    // Every core (the default leaves one free): most files are CPU-bound in-process, and the CLI
+    // children of the integration files are short.
+    maxWorkers: availableParallelism(),
   },
 });

@@ -42,7 +42,7 @@ describe('crossbound selftest', () => {
     expect(r.stdout).toMatch(/selftest: (\d+) of \1 broken variants caught/);
     for (const v of ['min-as-max', 'selfloop-exit', 'short-tail', 'at-absorbing', 'skip-last', 'loose-tie', 'defect-ends', 'bound-third']) expect(r.stdout).toMatch(new RegExp(`^${v}\\s+yes`, 'm'));
     // loose-tie is caught by the fuzz stage itself (its fuzz column names the failed check), not only by a corpus file.
-    expect(r.stdout).toMatch(/^loose-tie\s+yes\s+\d+\s+agree variant:loose-tie ~ kstep:4/m);
+    expect(r.stdout).toMatch(/^loose-tie\s+yes\s+\d+\s+(certified kstep:4, )?agree variant:loose-tie ~ kstep:4/m);
     // defect-ends too, on a near-tangent crossing (corpus/generators/dip.ts) that the corpus lacks.
     expect(r.stdout).toMatch(/^defect-ends\s+yes\s+\d+\s+.*agree variant:defect-ends ~ kstep:4/m);
     expect(r.code).toBe(0);
