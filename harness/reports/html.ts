@@ -107,7 +107,8 @@ export async function htmlReport(reports: readonly ModelReport[], meta: { identi
   const kinds = ['CTMC', 'CTMDP', 'CTMG'].map((k) => `${reports.filter((r) => r.kind === k).length} ${k}`).join(', ');
   const audit = auditSummary(reports);
   const auditHtml = audit.length
-    ? table(['method', 'models', 'largest actual error / bound', 'median'], audit.map((a) => [a.method, String(a.models), formatRatio(a.max), formatRatio(a.median)]))
+    ? table(['method', 'models', 'largest actual error / bound', 'median', 'certified', 'median certified / stated bound'],
+      audit.map((a) => [a.method, String(a.models), formatRatio(a.max), formatRatio(a.median), String(a.certified), a.certifiedMedian === undefined ? '-' : formatRatio(a.certifiedMedian)]))
     : '<p>No oracle values: no audit.</p>';
   const headline = `${sum.pass} of ${sum.models} models pass; ${sum.fail} fail; ${sum.unchecked} unchecked; ${failed} failed check(s). ` +
     `Requested precision ${formatPrecision(id.precision)}; a method shown as name@precision ran at that coarser precision (a work cap).`;
@@ -131,7 +132,7 @@ ${solverCoverageSection(reports)}
 ${evidenceSection(reports, id, cache)}
 <h2>Corpus coverage</h2><p>${esc(kinds)}; goal modes: ${reports.filter((r) => r.goalMode === 'within').length} within, ${reports.filter((r) => r.goalMode === 'at').length} at.</p>${coverage}
 ${assumedBoundNotes(reports).map((n) => `<p class="caution">Assumed bound: ${esc(n)}</p>`).join('')}
-<h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one.</p>${auditHtml}
+<h2>Bound audit</h2><p>Per method, its actual error against the high-precision oracle (beyond the oracle's own bound) divided by the bound it reported: over 1 is a broken bound, far below 1 a loose one. Certified: on how many models the method's dense solution was certified a posteriori (the check <code>certified</code>), and the median of that certified bound over the bound the method stated.</p>${auditHtml}
 <h2>Disagreements and failed checks</h2>${failuresSection(reports)}
 <h2>Unchecked models</h2>${uncheckedSection(reports)}
 <h2>Skipped checks</h2>${skippedSection(reports)}

@@ -39,6 +39,9 @@ describe('check --report', () => {
     expect(html).not.toMatch(/<(script|link|img|iframe)\b/i);
     expect(html).not.toMatch(/(src|href)\s*=\s*["']?https?:/i);
     expect(html).toMatch(/Fitted slopes/);
+    // The bound audit carries the a-posteriori certificates: kstep:4's pieces certified on both models.
+    expect(html).toContain('<th>median certified / stated bound</th>');
+    expect(html).toMatch(/<tr><td>kstep:4<\/td><td>2<\/td><td>[^<]+<\/td><td>[^<]+<\/td><td>2<\/td><td>0\.\d+<\/td><\/tr>/);
   });
 
   it('the record quotes the template exactly, names crossbound, its commit and the environment, and its command re-runs as printed', () => {
