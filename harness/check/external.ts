@@ -47,7 +47,7 @@ export async function runExternalMethod(
     timeoutMs: opts.timeoutMs ?? 60_000,
     ...(opts.defaultBound !== undefined ? { defaultBound: opts.defaultBound === 'precision' ? opts.precision : opts.defaultBound } : {}),
   });
-  if (out.kind === 'refused') return { ...id, status: 'refused', code: 'unspecified', reason: out.reason, seconds: out.seconds, reported: out.reported };
+  if (out.kind === 'refused') return { ...id, status: 'refused', code: out.code ?? 'unspecified', reason: out.reason, seconds: out.seconds, reported: out.reported };
   if (out.kind === 'fault') {
     const tail = out.stderrTail?.trim().split('\n').pop();
     const reason = tail ? `${out.detail} (stderr: ${tail.slice(0, 300)})` : out.detail;

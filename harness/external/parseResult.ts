@@ -24,6 +24,10 @@ import type { Scheduler, Segment } from '../../corpus/format/scheduler.js';
 import type { GoalMode } from '../../corpus/format/types.js';
 import { DECIMAL_TEXT } from '../../corpus/format/numbers.js';
 
+/** Refusal codes an external solver may give (as `solve --json` does); 'internal' is the harness's own fault kind. */
+export const EXTERNAL_REFUSAL_CODES = ['invalid-input', 'out-of-scope', 'work-cap', 'precision-floor'] as const;
+export type ExternalRefusalCode = (typeof EXTERNAL_REFUSAL_CODES)[number];
+
 export type ParseFault = 'not-json' | 'bad-format' | 'missing-state' | 'bad-value' | 'no-bound';
 
 /**
@@ -38,7 +42,7 @@ export interface ReportedIdentity {
 export type ParseOutcome =
   | { ok: true; solved: Solved; boundAssumed?: true; reported: ReportedIdentity }
   | { ok: false; fault: ParseFault; detail: string }
-  | { ok: 'refused'; reason: string; reported: ReportedIdentity };
+  | { ok: 'refused'; reason: string; code?: ExternalRefusalCode; reported: ReportedIdentity };
 
 /**
  * Slack on [0, 1]. A value is a probability, but it is computed in floating point: a convex
@@ -149,7 +153,9 @@ export function parseResult(text: string, stateNames: readonly string[], expect:
   const reported: ReportedIdentity = { method: doc.method, ...version };
   if (doc.refused !== undefined && doc.values === undefined) {
     if (typeof doc.refused !== 'string' || doc.refused.trim() === '') return fail('bad-format', '`refused` is not a non-empty string');
-    return { ok: 'refused', reason: doc.refused, reported };
+    // An optional `code` says what kind of refusal it is; other values are the solver's own key, ignored.
+    const code = typeof doc.code === 'string' && (EXTERNAL_REFUSAL_CODES as readonly string[]).includes(doc.code) ? { code: doc.code as ExternalRefusalCode } : {};
+    return { ok: 'refused', reason: doc.refused, ...code, reported };
   }
   if (!isPlainObject(doc.values)) return fail('bad-format', '`values` is missing or not an object');
 

@@ -21,14 +21,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Solved } from '../../corpus/format/result.js';
 import type { GoalMode } from '../../corpus/format/types.js';
-import { parseResult, type ParseFault, type ReportedIdentity } from './parseResult.js';
+import { parseResult, type ExternalRefusalCode, type ParseFault, type ReportedIdentity } from './parseResult.js';
 import { buildArgv, checkPlaceholders, splitTemplate } from './template.js';
 
 export type ExternalFault = ParseFault | 'timeout' | 'crash' | 'exit-code' | 'output-too-large' | 'spawn-failed';
 
 export type ExternalOutcome =
   | { kind: 'solved'; solved: Solved; seconds: number; boundAssumed?: true; reported: ReportedIdentity }
-  | { kind: 'refused'; reason: string; seconds: number; reported: ReportedIdentity }
+  | { kind: 'refused'; reason: string; code?: ExternalRefusalCode; seconds: number; reported: ReportedIdentity }
   | { kind: 'fault'; fault: ExternalFault; detail: string; seconds: number; stderrTail?: string };
 
 export interface ExternalOptions {
@@ -187,7 +187,7 @@ export async function runExternal(
     const goalMode: GoalMode = (modelJson as { goal_mode?: unknown }).goal_mode === 'at' ? 'at' : 'within';
     const expect = { timeBound: opts.timeBound, goalMode, ...(opts.defaultBound !== undefined ? { defaultBound: opts.defaultBound } : {}) };
     const parsed = parseResult(raw.stdout.toString('utf8'), stateNames, expect);
-    if (parsed.ok === 'refused') return { kind: 'refused', reason: parsed.reason, seconds: seconds(), reported: parsed.reported };
+    if (parsed.ok === 'refused') return { kind: 'refused', reason: parsed.reason, ...(parsed.code ? { code: parsed.code } : {}), seconds: seconds(), reported: parsed.reported };
     if (!parsed.ok) return fault(parsed.fault, parsed.detail);
     const assumed = parsed.boundAssumed ? { boundAssumed: true as const } : {};
     return { kind: 'solved', solved: parsed.solved, seconds: seconds(), ...assumed, reported: parsed.reported };

@@ -52,6 +52,9 @@ describe('crossbound solve (the built CLI)', () => {
     expect(r.code).toBe(0);
     // reasons are grouped with their numbers replaced by N
     expect(r.stdout).toMatch(/answered 1 of 2, refused 1: state 'dock' has N actions: uniformization needs a CTMC or a fixed scheduler \(1\)/);
+    // its refusal code travels with it: skipped transformed copies say out-of-scope, not unspecified
+    expect(r.stdout).toMatch(/transformed copy not solved: refused \(out-of-scope\)/);
+    expect(r.stdout).not.toMatch(/unspecified/);
   });
   it('bad usage is exit 2 with one line: unknown method, bad precision, missing file', () => {
     expect(expectOneLineError(crossbound(['solve', 'corpus/models/kettle-scale.yaml', '--method', 'magic']))).toMatch(/method/);

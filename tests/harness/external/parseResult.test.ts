@@ -100,6 +100,11 @@ describe('parseResult', () => {
   it('a refusal (refused, no values) is a refusal, not a fault; an empty or non-string reason is bad-format', () => {
     expect(parse({ format: 'crossbound-result/1', method: 'mysolver', refused: 'two-player games are not supported' }))
       .toEqual({ ok: 'refused', reason: 'two-player games are not supported', reported: { method: 'mysolver' } });
+    // An optional code of the known kinds is kept; another value is the solver's own key and ignored.
+    expect(parse({ format: 'crossbound-result/1', method: 'm', refused: 'too fine', code: 'precision-floor' }))
+      .toEqual({ ok: 'refused', reason: 'too fine', code: 'precision-floor', reported: { method: 'm' } });
+    expect(parse({ format: 'crossbound-result/1', method: 'm', refused: 'no', code: 'internal' })).toEqual({ ok: 'refused', reason: 'no', reported: { method: 'm' } });
+    expect(parse({ format: 'crossbound-result/1', method: 'm', refused: 'no', code: 7 })).toEqual({ ok: 'refused', reason: 'no', reported: { method: 'm' } });
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: '' })).toBe('bad-format');
     expect(faultOf({ format: 'crossbound-result/1', method: 'm', refused: 42 })).toBe('bad-format');
   });
